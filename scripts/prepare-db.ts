@@ -1,0 +1,19 @@
+// Migrations, then the demo collection if the database is empty. Run by `npm start` (through tsx)
+// with DATABASE_URL set; prints one line per step.
+import { openSequelize } from '../src/lib/server/db.ts';
+import { migrateUp } from '../db/migrate.ts';
+import { demoPassword, seedDemo } from '../db/seeders/demo.ts';
+
+const url = process.env.DATABASE_URL;
+if (!url) throw new Error('DATABASE_URL is not set.');
+const sequelize = openSequelize(url);
+try {
+	const applied = await migrateUp(sequelize);
+	console.log(applied.length ? `Applied migrations: ${applied.join(', ')}` : 'Database schema is up to date.');
+	if (process.env.MENISCUS_SEED !== 'none') {
+		const r = await seedDemo(sequelize, { password: demoPassword() });
+		console.log(r.seeded ? `Seeded the demo collection: ${r.users} users, ${r.specimens} specimens.` : `Demo data not added: ${r.reason}.`);
+	}
+} finally {
+	await sequelize.close();
+}

@@ -1,0 +1,159 @@
+import { useQuery } from '@tanstack/react-query';
+import { QueryRoot } from './QueryRoot.tsx';
+import { api } from '../lib/client/api.ts';
+import type { HomeSummary } from '../lib/home/schema.ts';
+import { LABELS } from '../lib/specimen/vocabulary.ts';
+import { ROLE_LABELS, type Role } from '../lib/auth/roles.ts';
+
+/** The home page's figures, fetched from /api/home; each role sees its own part. */
+export default function HomeDashboard() {
+	return (
+		<QueryRoot>
+			<Dashboard />
+		</QueryRoot>
+	);
+}
+
+function Dashboard() {
+	const q = useQuery({ queryKey: ['home'], queryFn: () => api<HomeSummary>('/api/home') });
+	if (q.isPending) return <p className="text-ink-600" role="status">Loading your overview…</p>;
+	if (q.isError) return <p className="notice-error" role="alert">The overview could not be loaded: {q.error.message}</p>;
+	const h = q.data;
+	return (
+		<div className="space-y-8" data-testid={`home-${h.role}`}>
+			{h.openChecks !== null && (
+				<Section title="My open condition checks">
+					<Empty>
+						You have no open condition checks. When a jar is due or flagged, open a check from its specimen record and it will
+						wait here until you submit it for review.
+					</Empty>
+				</Section>
+			)}
+			{h.awaitingReview !== null && (
+				<Section title="Waiting for review">
+					<Empty>
+						Nothing is waiting for your review. Checks and risk assessments that conservators submit will queue here, oldest
+						first.
+					</Empty>
+				</Section>
+			)}
+			{h.collection && <Collection c={h.collection} />}
+			{h.admin && <Admin a={h.admin} />}
+		</div>
+	);
+}
+
+function Collection({ c }: { c: NonNullable<HomeSummary['collection']> }) {
+	if (c.specimens === 0) {
+		return (
+			<Section title="The collection">
+				<Empty>No specimens are registered yet. Register the first jar, or import the collection’s spreadsheet.</Empty>
+			</Section>
+		);
+	}
+	return (
+		<Section title="The collection">
+			<div className="grid grid-cols-2 gap-3 md:grid-cols-4">
+				<Figure label="Specimens" value={c.specimens} />
+				<Figure label="Checks overdue" value={c.overdue} tone={c.overdue > 0 ? 'alert' : undefined} />
+				<Figure label="Due in the next 90 days" value={c.dueIn90Days} />
+				<Figure label="With hazard flags" value={c.withHazards} tone={c.withHazards > 0 ? 'caution' : undefined} />
+			</div>
+			<div className="mt-6 grid gap-6 md:grid-cols-2">
+				<Breakdown title="By preservative" rows={c.byPreservative} labels={LABELS.preservative} />
+				<Breakdown title="By seal" rows={c.bySeal} labels={LABELS.seal} />
+			</div>
+			{c.mostOverdue.length > 0 && (
+				<div className="mt-6">
+					<h3 className="text-lg font-semibold">Most overdue</h3>
+					<table className="mt-2 w-full text-left text-sm">
+						<thead className="text-ink-600">
+							<tr>
+								<th className="py-2 pr-4 font-semibold">Object number</th>
+								<th className="py-2 pr-4 font-semibold">Specimen</th>
+								<th className="py-2 pr-4 font-semibold">Location</th>
+								<th className="py-2 font-semibold">Check was due</th>
+							</tr>
+						</thead>
+						<tbody>
+							{c.mostOverdue.map((s) => (
+								<tr key={s.id} className="border-t border-ink-100">
+									<td className="py-2 pr-4 font-mono">{s.objectNumber}</td>
+									<td className="py-2 pr-4">{s.title}</td>
+									<td className="py-2 pr-4">{s.location ?? '—'}</td>
+									<td className="py-2">{s.nextCheckDue}</td>
+								</tr>
+							))}
+						</tbody>
+					</table>
+				</div>
+			)}
+		</Section>
+	);
+}
+
+function Admin({ a }: { a: NonNullable<HomeSummary['admin']> }) {
+	return (
+		<Section title="Accounts and mail">
+			<div className="grid grid-cols-2 gap-3 md:grid-cols-4">
+				{(Object.keys(ROLE_LABELS) as Role[]).map((r) => (
+					<Figure key={r} label={`${ROLE_LABELS[r]}s`} value={a.usersByRole[r] ?? 0} />
+				))}
+				<Figure label="Invitations not yet taken up" value={a.pendingInvitations} />
+				<Figure label="Disabled accounts" value={a.disabledUsers} />
+				<Figure label="E-mails waiting to go" value={a.mailQueued} />
+				<Figure label="E-mails that failed" value={a.mailFailed} tone={a.mailFailed > 0 ? 'alert' : undefined} />
+			</div>
+			<p className="mt-4 text-sm">
+				<a className="font-semibold text-glass-700 underline" href="/admin/users">Manage users and roles</a>
+			</p>
+		</Section>
+	);
+}
+
+function Section({ title, children }: { title: string; children: React.ReactNode }) {
+	return (
+		<section className="card" aria-labelledby={slug(title)}>
+			<h2 id={slug(title)} className="mb-4 text-xl font-semibold">{title}</h2>
+			{children}
+		</section>
+	);
+}
+
+function Empty({ children }: { children: React.ReactNode }) {
+	return <p className="rounded-md border border-dashed border-ink-200 bg-paper px-4 py-6 text-ink-700">{children}</p>;
+}
+
+function Figure({ label, value, tone }: { label: string; value: number; tone?: 'alert' | 'caution' }) {
+	const colour = tone === 'alert' ? 'text-alert-700' : tone === 'caution' ? 'text-spirit-800' : 'text-ink-900';
+	return (
+		<div className="rounded-md bg-paper px-4 py-3">
+			<div className={`text-3xl font-semibold tabular-nums ${colour}`}>{value}</div>
+			<div className="text-sm text-ink-700">{label}</div>
+		</div>
+	);
+}
+
+function Breakdown({ title, rows, labels }: { title: string; rows: Record<string, number>; labels: Record<string, string> }) {
+	const total = Object.values(rows).reduce((a, b) => a + b, 0) || 1;
+	return (
+		<div>
+			<h3 className="text-lg font-semibold">{title}</h3>
+			<ul className="mt-2 space-y-2">
+				{Object.entries(rows).map(([k, n]) => (
+					<li key={k} className="text-sm">
+						<div className="flex justify-between">
+							<span>{labels[k] ?? k}</span>
+							<span className="tabular-nums text-ink-700">{n}</span>
+						</div>
+						<div className="mt-1 h-2 rounded bg-ink-100" aria-hidden="true">
+							<div className="h-2 rounded bg-glass-500" style={{ width: `${(100 * n) / total}%` }} />
+						</div>
+					</li>
+				))}
+			</ul>
+		</div>
+	);
+}
+
+const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-');

@@ -1,0 +1,71 @@
+import type { Role } from './roles.ts';
+
+/**
+ * Who may use which route: the one place where access is declared (DESIGN.md §2, deny by
+ * default). Keys are Astro route patterns exactly as `context.routePattern` reports them (the file
+ * path under src/pages without extension, `index` dropped). A route missing here, or a method
+ * missing from its entry, is refused for everybody; `tests/unit/routeTable.test.ts` fails when a file
+ * under src/pages has no entry, so a new route cannot ship without a rule.
+ */
+export type Access = 'public' | 'signed-in' | readonly Role[];
+export type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE' | 'OPTIONS' | 'HEAD';
+export type RouteRule = Partial<Record<Exclude<Method, 'HEAD'>, Access>>;
+
+const ADMIN = ['admin'] as const;
+
+export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
+	// Sign-in, sign-out and password recovery.
+	'/login': { GET: 'public', POST: 'public' },
+	'/logout': { POST: 'signed-in' },
+	'/reset': { GET: 'public', POST: 'public' },
+	'/reset/[token]': { GET: 'public', POST: 'public' },
+	// Everybody's home; what it shows depends on the role.
+	'/': { GET: 'signed-in' },
+	'/api/me': { GET: 'signed-in' },
+	'/api/home': { GET: 'signed-in' },
+	// Administration.
+	'/admin/users': { GET: ADMIN },
+	'/admin/mailbox': { GET: ADMIN },
+	'/api/users': { GET: ADMIN, POST: ADMIN },
+	'/api/users/[id]': { PATCH: ADMIN },
+	'/api/users/[id]/invitation': { POST: ADMIN },
+	'/api/dev/mailbox': { GET: ADMIN },
+};
+
+export type Decision =
+	| { kind: 'allow' }
+	| { kind: 'sign-in' }
+	| { kind: 'forbidden'; reason: 'role' | 'no-rule' | 'method' };
+
+/** The decision for one request. HEAD is treated as GET, as HTTP defines it. */
+export function decide(
+	routePattern: string | undefined,
+	method: string,
+	user: { role: Role } | null,
+	rules: Readonly<Record<string, RouteRule>> = ROUTE_RULES,
+): Decision {
+	const rule = routePattern === undefined ? undefined : rules[routePattern];
+	if (!rule) return { kind: 'forbidden', reason: 'no-rule' };
+	const m = (method.toUpperCase() === 'HEAD' ? 'GET' : method.toUpperCase()) as keyof RouteRule;
+	const access = Object.hasOwn(rule, m) ? rule[m] : undefined;
+	if (access === undefined) return { kind: 'forbidden', reason: 'method' };
+	if (access === 'public') return { kind: 'allow' };
+	if (!user) return { kind: 'sign-in' };
+	if (access === 'signed-in' || access.includes(user.role)) return { kind: 'allow' };
+	return { kind: 'forbidden', reason: 'role' };
+}
+
+/** True when the route is public for this method (used to skip session work on sign-in pages). */
+export function isPublic(routePattern: string | undefined, method: string): boolean {
+	return decide(routePattern, method, null).kind === 'allow';
+}
+
+/**
+ * Where to send someone after sign-in. Only a path on this site is accepted (`/x`, never `//x`
+ * or `https://…`), so `?next=` cannot be used to bounce a user to another site.
+ */
+export function safeNextPath(next: string | null | undefined): string {
+	if (!next || !next.startsWith('/') || next.startsWith('//') || next.startsWith('/\\')) return '/';
+	if (/[\u0000-\u001f]/.test(next)) return '/';
+	return next;
+}

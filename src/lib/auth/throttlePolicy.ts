@@ -1,0 +1,61 @@
+/**
+ * Sign-in throttling (OWASP ASVS 5.0 6.3.1: brute-force controls without a lockout that an attacker
+ * could use to shut a real user out). Failures are counted per account and per client address in a
+ * window; once the allowance is used up each further failure doubles the wait, capped, so a real
+ * user waits minutes at worst and never needs an administrator to unlock.
+ * The numbers are common practice, no published source.
+ */
+export interface ThrottleRule {
+	/** Failures in the window after which the next attempt must wait. */
+	free: number;
+	/** Window after the first failure in which failures are counted, ms. */
+	windowMs: number;
+	/** Wait after the first failure past the allowance, ms; doubles each further failure. */
+	baseDelayMs: number;
+	/** Longest wait, ms. */
+	maxDelayMs: number;
+}
+
+export const ACCOUNT_RULE: ThrottleRule = {
+	free: 5,
+	windowMs: 15 * 60_000,
+	baseDelayMs: 30_000,
+	maxDelayMs: 15 * 60_000,
+};
+
+/** Per address: looser, since a store room may share one address among several people. */
+export const ADDRESS_RULE: ThrottleRule = {
+	free: 30,
+	windowMs: 15 * 60_000,
+	baseDelayMs: 60_000,
+	maxDelayMs: 15 * 60_000,
+};
+
+export interface ThrottleState {
+	failures: number;
+	windowStart: Date;
+	blockedUntil: Date | null;
+}
+
+/** The state after one more failure at `now`. */
+export function afterFailure(prev: ThrottleState | null, now: Date, rule: ThrottleRule): ThrottleState {
+	const fresh = !prev || now.getTime() - prev.windowStart.getTime() > rule.windowMs;
+	const failures = fresh ? 1 : prev.failures + 1;
+	const windowStart = fresh ? now : prev.windowStart;
+	const over = failures - rule.free; // 0 at the failure that uses up the allowance
+	const blockedUntil =
+		over >= 0 ? new Date(now.getTime() + Math.min(rule.maxDelayMs, rule.baseDelayMs * 2 ** over)) : null;
+	return { failures, windowStart, blockedUntil };
+}
+
+/** Milliseconds still to wait at `now`, 0 when a sign-in attempt may go ahead. */
+export function waitMs(state: ThrottleState | null, now: Date): number {
+	if (!state?.blockedUntil) return 0;
+	return Math.max(0, state.blockedUntil.getTime() - now.getTime());
+}
+
+/** A wait in words for the sign-in page ("about 2 minutes"). */
+export function describeWait(ms: number): string {
+	const minutes = Math.ceil(ms / 60_000);
+	return minutes <= 1 ? 'a minute' : `${minutes} minutes`;
+}

@@ -1,0 +1,22 @@
+import type { Sequelize } from 'sequelize';
+import { AuditEvent } from './AuditEvent.ts';
+import { AuthToken } from './AuthToken.ts';
+import { LoginThrottle } from './LoginThrottle.ts';
+import { OutgoingMail } from './OutgoingMail.ts';
+import { Specimen } from './Specimen.ts';
+import { StorageLocation } from './StorageLocation.ts';
+import { User } from './User.ts';
+import { UserSession } from './UserSession.ts';
+
+export { AuditEvent, AuthToken, LoginThrottle, OutgoingMail, Specimen, StorageLocation, User, UserSession };
+
+/** Binds every model to one connection and declares the associations. */
+export function initModels(sequelize: Sequelize): void {
+	for (const m of [AuditEvent, AuthToken, LoginThrottle, OutgoingMail, Specimen, StorageLocation, User, UserSession]) {
+		m.initModel(sequelize);
+	}
+	Specimen.belongsTo(StorageLocation, { foreignKey: 'storageLocationId', as: 'location' });
+	StorageLocation.hasMany(Specimen, { foreignKey: 'storageLocationId' });
+	AuthToken.belongsTo(User, { foreignKey: 'userId' });
+	UserSession.belongsTo(User, { foreignKey: 'userId' });
+}

@@ -1,0 +1,81 @@
+import { defineMiddleware, sequence } from 'astro:middleware';
+import { decide } from './lib/auth/permissions.ts';
+import { checkSession, blankCookie, sessionCookieName } from './lib/server/auth/lucia.ts';
+import { SECURITY_HEADERS, isCrossSite, withHeaders } from './lib/server/security.ts';
+import { startOutboxWorker } from './lib/server/mail/outbox.ts';
+import { audit } from './lib/server/audit.ts';
+import { db } from './lib/server/db.ts';
+import { forbiddenPage } from './lib/server/pages.ts';
+
+/**
+ * Every request: security headers, the same-origin rule for changes, then who is asking and whether
+ * the route's rule (src/lib/auth/permissions.ts) lets them. Deny by default: a route without a rule
+ * is refused for everybody.
+ */
+/** Binds the models to the connection and starts the mail sender, once per process. */
+const init = defineMiddleware((_ctx, next) => {
+	db();
+	startOutboxWorker();
+	return next();
+});
+
+const headers = defineMiddleware(async (_ctx, next) => withHeaders(await next(), SECURITY_HEADERS));
+
+const sameOrigin = defineMiddleware(async (ctx, next) => {
+	if (isCrossSite(ctx.request, ctx.url.origin)) {
+		await audit({
+			action: 'request.cross-site-refused',
+			entityType: 'route',
+			entityId: ctx.routePattern,
+			after: { method: ctx.request.method, origin: ctx.request.headers.get('origin') },
+			clientAddress: ctx.clientAddress,
+		}).catch(() => {});
+		return new Response('Cross-site requests are refused.', { status: 403, headers: { 'content-type': 'text/plain' } });
+	}
+	return next();
+});
+
+const isApi = (path: string) => path === '/api' || path.startsWith('/api/');
+
+const access = defineMiddleware(async (ctx, next) => {
+	const sessionId = ctx.cookies.get(sessionCookieName())?.value;
+	const check = await checkSession(sessionId);
+	ctx.locals.user = check.user;
+	ctx.locals.sessionId = check.user ? check.sessionId : null;
+	if (sessionId && !check.user) {
+		const blank = blankCookie();
+		ctx.cookies.set(blank.name, blank.value, blank.attributes);
+	}
+	const decision = decide(ctx.routePattern, ctx.request.method, check.user);
+	if (decision.kind === 'allow') return next();
+	const api = isApi(ctx.url.pathname);
+	if (decision.kind === 'sign-in') {
+		if (api) return Response.json({ error: 'Sign in first.' }, { status: 401 });
+		const back = ctx.url.pathname + ctx.url.search;
+		const why = check.user === null && check.reason !== 'none' ? `&why=${check.reason}` : '';
+		return ctx.redirect(`/login?next=${encodeURIComponent(back)}${why}`, 302);
+	}
+	await audit({
+		action: 'access.refused',
+		entityType: 'route',
+		entityId: ctx.routePattern ?? ctx.url.pathname.slice(0, 80),
+		actorId: check.user?.id ?? null,
+		after: { method: ctx.request.method, reason: decision.reason },
+		clientAddress: ctx.clientAddress,
+	});
+	if (decision.reason === 'no-rule' && !check.user) {
+		// Unknown addresses look the same to everybody signed out: go and sign in.
+		if (api) return Response.json({ error: 'Sign in first.' }, { status: 401 });
+		return ctx.redirect(`/login?next=${encodeURIComponent(ctx.url.pathname)}`, 302);
+	}
+	const [status, message] =
+		decision.reason === 'no-rule'
+			? [404, 'There is nothing at this address.']
+			: decision.reason === 'method'
+				? [405, 'That method is not allowed here.']
+				: [403, 'Your role does not give access to this.'];
+	if (api) return Response.json({ error: message }, { status });
+	return forbiddenPage(message, status);
+});
+
+export const onRequest = sequence(init, headers, sameOrigin, access);

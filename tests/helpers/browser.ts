@@ -1,0 +1,42 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { chromium, type BrowserContext } from 'playwright-core';
+
+/**
+ * Debian's Chromium driven by playwright-core, with a fresh profile each time and the flags this
+ * machine needs (no sandbox as root, no background network). Screenshots go to test-results/.
+ */
+export const CHROMIUM_ARGS = [
+	'--headless',
+	'--no-sandbox',
+	'--disable-gpu',
+	'--disable-quic',
+	'--no-first-run',
+	'--disable-background-networking',
+	'--disable-component-update',
+	'--disable-sync',
+];
+
+export async function openBrowser(): Promise<{ context: BrowserContext; close(): Promise<void> }> {
+	const profile = fs.mkdtempSync(path.join(os.tmpdir(), 'meniscus-chromium-'));
+	const context = await chromium.launchPersistentContext(profile, {
+		executablePath: '/usr/bin/chromium',
+		headless: true,
+		args: CHROMIUM_ARGS,
+		viewport: { width: 1180, height: 820 },
+	});
+	return {
+		context,
+		async close() {
+			await context.close();
+			fs.rmSync(profile, { recursive: true, force: true });
+		},
+	};
+}
+
+export function screenshotPath(name: string): string {
+	const dir = path.resolve('test-results', 'screens');
+	fs.mkdirSync(dir, { recursive: true });
+	return path.join(dir, `${name}.png`);
+}

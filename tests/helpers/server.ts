@@ -1,0 +1,77 @@
+import { inject } from 'vitest';
+import { readMailbox, type MailboxMessage } from '../../src/lib/server/mail/fakeSmtp.ts';
+
+/**
+ * Talking to the app the global setup started, as a browser would: same-origin requests carry an
+ * Origin header, cookies are passed by hand, redirects are not followed so they can be checked.
+ */
+export const baseUrl = () => inject('baseUrl');
+
+/** Points this test process's server modules (models, auth) at the test database. */
+export function useTestDatabase(): void {
+	process.env.DATABASE_URL = inject('databaseUrl');
+	process.env.MENISCUS_PUBLIC_URL = inject('baseUrl');
+	process.env.MENISCUS_MAILBOX_DIR = inject('mailboxDir');
+}
+
+export interface Req {
+	method?: string;
+	cookie?: string;
+	json?: unknown;
+	form?: Record<string, string>;
+	origin?: string | null;
+	headers?: Record<string, string>;
+}
+
+export async function call(path: string, r: Req = {}): Promise<Response> {
+	const headers: Record<string, string> = { ...r.headers };
+	const method = r.method ?? (r.json !== undefined || r.form ? 'POST' : 'GET');
+	if (r.origin !== null && method !== 'GET') headers.origin = r.origin ?? baseUrl();
+	if (r.cookie) headers.cookie = r.cookie;
+	let body: string | undefined;
+	if (r.json !== undefined) {
+		headers['content-type'] = 'application/json';
+		body = JSON.stringify(r.json);
+	} else if (r.form) {
+		headers['content-type'] = 'application/x-www-form-urlencoded';
+		body = new URLSearchParams(r.form).toString();
+	}
+	return fetch(baseUrl() + path, { method, headers, body, redirect: 'manual' });
+}
+
+/** The session cookie ("name=value") a response sets, or null. */
+export function sessionCookie(res: Response): string | null {
+	for (const c of res.headers.getSetCookie()) {
+		const [pair] = c.split(';');
+		if (pair && /session=/.test(pair) && !/=$/.test(pair) && !/=deleted$/.test(pair)) return pair;
+	}
+	return null;
+}
+
+export async function signIn(email: string, password = inject('demoPassword')): Promise<string> {
+	const res = await call('/login', { form: { email, password } });
+	const cookie = sessionCookie(res);
+	if (res.status !== 303 || !cookie) throw new Error(`sign-in as ${email} failed: ${res.status}`);
+	return cookie;
+}
+
+/** Waits for a message to `to` whose subject matches, as the fake SMTP server stored it. */
+export async function waitForMail(to: string, subject: RegExp, ms = 15_000): Promise<MailboxMessage> {
+	const until = Date.now() + ms;
+	while (Date.now() < until) {
+		const found = (await readMailbox(inject('mailboxDir'))).find((m) => m.envelopeTo.includes(to) && subject.test(m.subject));
+		if (found) return found;
+		await new Promise((r) => setTimeout(r, 200));
+	}
+	throw new Error(`no mail to ${to} matching ${subject} within ${ms} ms`);
+}
+
+export function linkIn(text: string): string {
+	const m = text.match(/https?:\/\/\S+\/reset\/[A-Za-z0-9_-]+/);
+	if (!m) throw new Error('no link in the message');
+	return new URL(m[0]).pathname;
+}
+
+let n = 0;
+/** A unique example.org address for a test's own user. */
+export const uniqueEmail = (tag: string) => `${tag}-${process.pid}-${Date.now()}-${n++}@example.org`;

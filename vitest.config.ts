@@ -1,0 +1,20 @@
+/// <reference types="vitest/config" />
+import { getViteConfig } from 'astro/config';
+
+/**
+ * One run covers unit, integration and browser tests. The global setup gives integration and
+ * browser tests a throwaway PostgreSQL, the built app and a fake mail server; unit-only runs
+ * (`npm run test:unit`) skip it.
+ */
+export default getViteConfig({
+	test: {
+		include: ['tests/**/*.test.ts'],
+		globalSetup: ['tests/setup/global.ts'],
+		testTimeout: 30_000,
+		hookTimeout: 180_000,
+		pool: 'forks',
+		// Two cores: integration and browser files share one server; keep the load on it modest.
+		maxWorkers: 2,
+		minWorkers: 1,
+	},
+});
