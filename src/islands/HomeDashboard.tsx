@@ -57,12 +57,20 @@ function Collection({ c }: { c: NonNullable<HomeSummary['collection']> }) {
 				<Figure label="Specimens" value={c.specimens} />
 				<Figure label="Checks overdue" value={c.overdue} tone={c.overdue > 0 ? 'alert' : undefined} />
 				<Figure label="Due in the next 90 days" value={c.dueIn90Days} />
-				<Figure label="With hazard flags" value={c.withHazards} tone={c.withHazards > 0 ? 'caution' : undefined} />
+				<Figure label="With toxic or unknown hazards" value={c.withHazards} tone={c.withHazards > 0 ? 'caution' : undefined} />
 			</div>
-			<div className="mt-6 grid gap-6 md:grid-cols-2">
-				<Breakdown title="By preservative" rows={c.byPreservative} labels={LABELS.preservative} />
-				<Breakdown title="By seal" rows={c.bySeal} labels={LABELS.seal} />
+			<div className="mt-6 grid gap-6 md:grid-cols-3">
+				<Breakdown title="By preservative" rows={c.byPreservative} labels={LABELS.preservative} of={c.specimens} />
+				<Breakdown title="By seal" rows={c.bySeal} labels={LABELS.seal} of={c.specimens} />
+				<Breakdown title="Hazard flags" rows={c.byHazard} labels={LABELS.hazard} of={c.specimens} />
 			</div>
+			{Object.keys(c.byHazard).length > 0 && (
+				<p className="notice-caution mt-6">
+					Jars flagged here may hold flammable spirit, formaldehyde, unknown fluids or seals and lids with lead, arsenic,
+					mercury or coal-tar pitch. Handle them only under your organisation’s risk assessment and local regulations, with
+					the controls they require; Meniscus records hazards but gives no safety advice of its own.
+				</p>
+			)}
 			{c.mostOverdue.length > 0 && (
 				<div className="mt-6">
 					<h3 className="text-lg font-semibold">Most overdue</h3>
@@ -134,8 +142,10 @@ function Figure({ label, value, tone }: { label: string; value: number; tone?: '
 	);
 }
 
-function Breakdown({ title, rows, labels }: { title: string; rows: Record<string, number>; labels: Record<string, string> }) {
-	const total = Object.values(rows).reduce((a, b) => a + b, 0) || 1;
+/** Counts with a bar each, as a share of `of` jars (a jar can carry several hazard flags). */
+function Breakdown(props: { title: string; rows: Record<string, number>; labels: Record<string, string>; of: number }) {
+	const { title, rows, labels } = props;
+	const total = props.of || 1;
 	return (
 		<div>
 			<h3 className="text-lg font-semibold">{title}</h3>

@@ -1,5 +1,5 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { useState, type FormEvent } from 'react';
+import { useState, type SubmitEvent } from 'react';
 import { QueryRoot } from './QueryRoot.tsx';
 import { api, ApiError } from '../lib/client/api.ts';
 import { ROLES, ROLE_LABELS, type Role } from '../lib/auth/roles.ts';
@@ -76,7 +76,13 @@ function UserRow({ user, self }: { user: UserView; self: boolean }) {
 					className="field-input mt-0 w-40"
 					value={user.role}
 					disabled={self || update.isPending}
-					onChange={(e) => update.mutate({ role: e.target.value as Role })}
+					onChange={(e) => {
+						const role = e.target.value as Role;
+						// A role decides what a person may see and sign off: ask before changing it.
+						if (window.confirm(`Change ${user.name}’s role to ${ROLE_LABELS[role]}? It applies on their next request.`)) {
+							update.mutate({ role });
+						} else e.target.value = user.role;
+					}}
 				>
 					{ROLES.map((r) => (
 						<option key={r} value={r}>{ROLE_LABELS[r]}</option>
@@ -89,7 +95,17 @@ function UserRow({ user, self }: { user: UserView; self: boolean }) {
 			<td className="py-3">
 				<div className="flex flex-wrap gap-2">
 					{!self && (
-						<button className="btn-secondary" type="button" disabled={update.isPending} onClick={() => update.mutate({ disabled: !user.disabled })}>
+						<button
+							className="btn-secondary"
+							type="button"
+							disabled={update.isPending}
+							onClick={() => {
+								const verb = user.disabled ? 'Enable' : 'Disable';
+								if (window.confirm(`${verb} ${user.name}’s account?${user.disabled ? '' : ' They are signed out at once.'}`)) {
+									update.mutate({ disabled: !user.disabled });
+								}
+							}}
+						>
 							{user.disabled ? 'Enable' : 'Disable'}
 						</button>
 					)}
@@ -120,7 +136,7 @@ function InviteForm() {
 			else setFields({ form: e.message });
 		},
 	});
-	function submit(ev: FormEvent<HTMLFormElement>) {
+	function submit(ev: SubmitEvent<HTMLFormElement>) {
 		ev.preventDefault();
 		setDone(null);
 		const data = Object.fromEntries(new FormData(ev.currentTarget));

@@ -16,6 +16,14 @@ afterAll(async () => {
 	await browser?.close();
 });
 
+/** Console errors and uncaught exceptions of a page (CSP violations show up here). */
+function watchConsole(page: Page): string[] {
+	const problems: string[] = [];
+	page.on('console', (m) => m.type() === 'error' && problems.push(m.text()));
+	page.on('pageerror', (e) => problems.push(e.message));
+	return problems;
+}
+
 async function signInAs(page: Page, email: string) {
 	await page.fill('#email', email);
 	await page.fill('#password', inject('demoPassword'));
@@ -30,6 +38,7 @@ describe('signing in with a browser', () => {
 		['admin', 'Administration'],
 	])('shows the %s their own home page', async (role, heading) => {
 		const page = await context.newPage();
+		const problems = watchConsole(page);
 		await context.clearCookies();
 		await page.goto(`${base()}/login`);
 		await signInAs(page, `${role}@example.org`);
@@ -37,6 +46,8 @@ describe('signing in with a browser', () => {
 		await expect.poll(() => page.textContent('[data-testid=home-heading]')).toBe(heading);
 		await page.waitForSelector(`[data-testid=home-${role}]`);
 		await page.screenshot({ path: screenshotPath(`home-${role}`), fullPage: true });
+		// The hashed CSP must not block any of the app's own scripts or styles.
+		expect(problems).toEqual([]);
 		await page.close();
 	});
 

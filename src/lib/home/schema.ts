@@ -17,6 +17,7 @@ export const HomeSummarySchema = z.object({
 			overdue: z.number(),
 			dueIn90Days: z.number(),
 			withHazards: z.number(),
+			byHazard: z.record(z.string(), z.number()),
 			byPreservative: z.record(z.string(), z.number()),
 			bySeal: z.record(z.string(), z.number()),
 			mostOverdue: z.array(DueSpecimenSchema),

@@ -28,14 +28,23 @@ export function isCrossSite(request: Request, siteOrigin: string): boolean {
 	return request.headers.get('sec-fetch-site') !== 'same-origin';
 }
 
-/** Sets headers even on responses whose headers are immutable (e.g. Response.redirect). */
+/**
+ * Sets headers the response does not have yet, even where its headers are immutable (e.g.
+ * Response.redirect). A page's own CSP (Astro's script and style hashes) is kept and our
+ * directives are appended to it.
+ */
 export function withHeaders(response: Response, headers: Record<string, string>): Response {
-	let r = response;
+	const apply = (r: Response) => {
+		for (const [k, v] of Object.entries(headers)) {
+			const existing = r.headers.get(k);
+			if (existing === null) r.headers.set(k, v);
+			else if (k === 'content-security-policy') r.headers.set(k, `${existing.replace(/;\s*$/, '')}; ${v}`);
+		}
+		return r;
+	};
 	try {
-		for (const [k, v] of Object.entries(headers)) if (!r.headers.has(k)) r.headers.set(k, v);
+		return apply(response);
 	} catch {
-		r = new Response(response.body, response);
-		for (const [k, v] of Object.entries(headers)) if (!r.headers.has(k)) r.headers.set(k, v);
+		return apply(new Response(response.body, response));
 	}
-	return r;
 }

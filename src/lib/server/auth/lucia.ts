@@ -73,11 +73,7 @@ export function sessionPolicy(): SessionPolicy {
 	};
 }
 
-export interface CookieSpec {
-	name: string;
-	value: string;
-	attributes: Record<string, unknown>;
-}
+export type CookieSpec = ReturnType<ReturnType<typeof makeLucia>['createSessionCookie']>;
 
 export function sessionCookieName(): string {
 	return lucia().sessionCookieName;

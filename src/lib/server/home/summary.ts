@@ -27,7 +27,8 @@ async function collectionFigures(day: string): Promise<NonNullable<HomeSummary['
 		`SELECT count(*) AS specimens,
 		        count(*) FILTER (WHERE next_check_due < :day) AS overdue,
 		        count(*) FILTER (WHERE next_check_due >= :day AND next_check_due < (:day::date + 90)) AS due90,
-		        count(*) FILTER (WHERE jsonb_array_length(hazards) > 0) AS hazards
+		        count(*) FILTER (WHERE EXISTS (SELECT 1 FROM jsonb_array_elements(hazards) h
+		                                       WHERE h->>'flag' <> 'flammable-spirit')) AS hazards
 		 FROM specimens WHERE deleted_at IS NULL`,
 		{ type: QueryTypes.SELECT, replacements: { day } },
 	);
@@ -36,9 +37,14 @@ async function collectionFigures(day: string): Promise<NonNullable<HomeSummary['
 			`SELECT ${column} AS k, count(*) AS n FROM specimens WHERE deleted_at IS NULL GROUP BY 1 ORDER BY 2 DESC`,
 			{ type: QueryTypes.SELECT },
 		);
-	const [byPreservative, bySeal, overdue] = await Promise.all([
+	const [byPreservative, bySeal, byHazard, overdue] = await Promise.all([
 		groups('preservative_kind'),
 		groups('seal_type'),
+		s.query<{ k: string; n: string }>(
+			`SELECT h->>'flag' AS k, count(*) AS n FROM specimens, jsonb_array_elements(hazards) h
+			 WHERE deleted_at IS NULL GROUP BY 1 ORDER BY 2 DESC`,
+			{ type: QueryTypes.SELECT },
+		),
 		s.query<{ id: string; object_number: string; title: string; next_check_due: string; location: string | null }>(
 			`SELECT sp.id, sp.object_number, sp.title, sp.next_check_due::text AS next_check_due, l.code AS location
 			 FROM specimens sp LEFT JOIN storage_locations l ON l.id = sp.storage_location_id
@@ -53,6 +59,7 @@ async function collectionFigures(day: string): Promise<NonNullable<HomeSummary['
 		overdue: Number(totals?.overdue ?? 0),
 		dueIn90Days: Number(totals?.due90 ?? 0),
 		withHazards: Number(totals?.hazards ?? 0),
+		byHazard: toRecord(byHazard),
 		byPreservative: toRecord(byPreservative),
 		bySeal: toRecord(bySeal),
 		mostOverdue: overdue.map((r) => ({

@@ -8,6 +8,7 @@ import { StorageLocation } from './StorageLocation.ts';
 import { User } from './User.ts';
 import { UserSession } from './UserSession.ts';
 
+export type { TokenPurpose } from './AuthToken.ts';
 export { AuditEvent, AuthToken, LoginThrottle, OutgoingMail, Specimen, StorageLocation, User, UserSession };
 
 /** Binds every model to one connection and declares the associations. */
