@@ -1,27 +1,17 @@
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { BrowserContext } from 'playwright-core';
-import { openBrowser, screenshotPath } from '../helpers/browser.ts';
+import { describe, expect, inject, it } from 'vitest';
+import { screenshotPath, useBrowser } from '../helpers/browser.ts';
 
 /**
  * An administrator invites a person on the Users page; the invitation shows in the development
  * mailbox; the invited person follows its link, chooses a password and lands on their home page.
  */
 const base = () => inject('baseUrl');
-let browser: Awaited<ReturnType<typeof openBrowser>>;
-let context: BrowserContext;
-
-beforeAll(async () => {
-	browser = await openBrowser();
-	context = browser.context;
-});
-afterAll(async () => {
-	await browser?.close();
-});
+const browser = useBrowser();
 
 describe('inviting a person', () => {
 	it('goes from the Users page to the mailbox to a new account that can sign in', async () => {
 		const email = `invited-${Date.now()}@example.org`;
-		const page = await context.newPage();
+		const page = await browser().newPage();
 		page.on('dialog', (d) => d.accept());
 		await page.goto(`${base()}/login?next=/admin/users`);
 		await page.fill('#email', 'admin@example.org');
@@ -47,7 +37,7 @@ describe('inviting a person', () => {
 		const href = await mail.locator('a').first().getAttribute('href');
 		expect(href).toMatch(/\/reset\/[A-Za-z0-9_-]{43}$/);
 
-		await context.clearCookies();
+		await browser().clearCookies();
 		await page.goto(href!);
 		expect(await page.textContent('h1')).toBe('Choose your password');
 		await page.fill('#password', 'wren chooses a long password');

@@ -1,20 +1,11 @@
 import http from 'node:http';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import type { BrowserContext, Page } from 'playwright-core';
-import { openBrowser, screenshotPath } from '../helpers/browser.ts';
+import { describe, expect, inject, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { screenshotPath, useBrowser } from '../helpers/browser.ts';
 
 /** The sign-in journey in a real browser against the built server. */
 const base = () => inject('baseUrl');
-let browser: Awaited<ReturnType<typeof openBrowser>>;
-let context: BrowserContext;
-
-beforeAll(async () => {
-	browser = await openBrowser();
-	context = browser.context;
-});
-afterAll(async () => {
-	await browser?.close();
-});
+const browser = useBrowser();
 
 /** Console errors and uncaught exceptions of a page (CSP violations show up here). */
 function watchConsole(page: Page): string[] {
@@ -37,9 +28,9 @@ describe('signing in with a browser', () => {
 		['curator', 'The collection at a glance'],
 		['admin', 'Administration'],
 	])('shows the %s their own home page', async (role, heading) => {
-		const page = await context.newPage();
+		const page = await browser().newPage();
 		const problems = watchConsole(page);
-		await context.clearCookies();
+		await browser().clearCookies();
 		await page.goto(`${base()}/login`);
 		await signInAs(page, `${role}@example.org`);
 		expect(new URL(page.url()).pathname).toBe('/');
@@ -52,8 +43,8 @@ describe('signing in with a browser', () => {
 	});
 
 	it('sends a signed-out visit to a protected page to sign-in, and back there afterwards', async () => {
-		await context.clearCookies();
-		const page = await context.newPage();
+		await browser().clearCookies();
+		const page = await browser().newPage();
 		await page.goto(`${base()}/admin/users`);
 		const url = new URL(page.url());
 		expect(url.pathname).toBe('/login');
@@ -67,8 +58,8 @@ describe('signing in with a browser', () => {
 	});
 
 	it('shows a clear message for a wrong password and keeps the address typed', async () => {
-		await context.clearCookies();
-		const page = await context.newPage();
+		await browser().clearCookies();
+		const page = await browser().newPage();
 		await page.goto(`${base()}/login`);
 		await page.fill('#email', 'curator@example.org');
 		await page.fill('#password', 'certainly not right');
@@ -88,7 +79,7 @@ describe('signing in with a browser', () => {
 		});
 		await new Promise<void>((r) => evil.listen(0, '127.0.0.2', r));
 		const port = (evil.address() as { port: number }).port;
-		const page = await context.newPage();
+		const page = await browser().newPage();
 		const answer = page.waitForResponse((r) => r.url().startsWith(`${base()}/login`) && r.request().method() === 'POST');
 		await page.goto(`http://127.0.0.2:${port}/`);
 		const res = await answer;

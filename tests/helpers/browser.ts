@@ -1,6 +1,7 @@
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import { afterAll, beforeAll } from 'vitest';
 import { chromium, type BrowserContext } from 'playwright-core';
 
 /**
@@ -39,4 +40,19 @@ export function screenshotPath(name: string): string {
 	const dir = path.resolve('test-results', 'screens');
 	fs.mkdirSync(dir, { recursive: true });
 	return path.join(dir, `${name}.png`);
+}
+
+/** Opens one browser for the test file and closes it afterwards; call at the top of the file. */
+export function useBrowser(): () => BrowserContext {
+	let browser: Awaited<ReturnType<typeof openBrowser>> | undefined;
+	beforeAll(async () => {
+		browser = await openBrowser();
+	});
+	afterAll(async () => {
+		await browser?.close();
+	});
+	return () => {
+		if (!browser) throw new Error('the browser is not open yet');
+		return browser.context;
+	};
 }
