@@ -299,9 +299,11 @@ export async function removeCluster({ dataDir, log = () => {} } = {}) {
 
 // ---- CLI: logs go to stderr so `$(node db/cluster.mjs url)` captures only the URL ----
 async function main(cmd) {
-	const dataDir = path.join(path.dirname(fileURLToPath(import.meta.url)), 'cluster', 'data');
-	const port = process.env.MENISCUS_PG_PORT ? Number(process.env.MENISCUS_PG_PORT) : DEFAULT_PG_PORT;
+	// The same place `npm start` uses (db/cluster, or where it links to when run as root).
+	const { clusterDataDir } = await import('../scripts/lib/clusterHome.mjs');
 	const log = (m) => console.error(m);
+	const dataDir = clusterDataDir(path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..'), log);
+	const port = process.env.MENISCUS_PG_PORT ? Number(process.env.MENISCUS_PG_PORT) : DEFAULT_PG_PORT;
 	if (cmd === 'start') {
 		checkPort(port);
 		await findPgBin({ install: true, log });

@@ -22,8 +22,9 @@ const { findPgBin, startCluster, stopCluster, DEFAULT_PG_PORT, freePort } = awai
 const { ensureBuild } = await import('./lib/build.mjs');
 const { startService, stopService, waitForHttp } = await import('./lib/proc.mjs');
 const { demoPassword } = await import('../db/seeders/demoPassword.mjs');
+const { clusterDataDir } = await import('./lib/clusterHome.mjs');
 
-const dataDir = path.join(root, 'db', 'cluster', 'data');
+const dataDir = clusterDataDir(root, log);
 const pgPort = Number(process.env.MENISCUS_PG_PORT || DEFAULT_PG_PORT);
 const host = process.env.HOST || '127.0.0.1';
 const port = Number(process.env.PORT || 4321);
