@@ -12,6 +12,8 @@ function watchConsole(page: Page): string[] {
 	const problems: string[] = [];
 	page.on('console', (m) => m.type() === 'error' && problems.push(m.text()));
 	page.on('pageerror', (e) => problems.push(e.message));
+	// Fonts and scripts ship with the app: no request may leave this site.
+	page.on('request', (r) => !r.url().startsWith(base()) && problems.push(`request to ${r.url()}`));
 	return problems;
 }
 
@@ -39,6 +41,21 @@ describe('signing in with a browser', () => {
 		await page.screenshot({ path: screenshotPath(`home-${role}`), fullPage: true });
 		// The hashed CSP must not block any of the app's own scripts or styles.
 		expect(problems).toEqual([]);
+		await page.close();
+	});
+
+	it('fits a tablet held upright in a store room', async () => {
+		const page = await browser().newPage();
+		await page.setViewportSize({ width: 768, height: 1024 });
+		await browser().clearCookies();
+		await page.goto(`${base()}/login`);
+		await signInAs(page, 'conservator@example.org');
+		await page.waitForSelector('[data-testid=home-conservator]');
+		// Nothing wider than the screen: no sideways scrolling.
+		expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(768);
+		const signOut = await page.locator('text=Sign out').boundingBox();
+		expect(signOut!.height).toBeGreaterThanOrEqual(44);
+		await page.screenshot({ path: screenshotPath('home-tablet'), fullPage: true });
 		await page.close();
 	});
 

@@ -55,3 +55,14 @@ describe('response headers', () => {
 		expect(text).not.toMatch(/passwordHash|password_hash/);
 	});
 });
+
+describe('first-run set-up', () => {
+	it('is closed once any account exists: GET goes to sign-in, POST creates nothing', async () => {
+		expect((await call('/setup')).headers.get('location')).toBe('/login');
+		const count = await User.count();
+		const pw = 'a takeover attempt password';
+		const res = await call('/setup', { form: { name: 'Intruder', email: 'intruder@example.org', password: pw, confirm: pw } });
+		expect(res.status).toBe(409);
+		expect(await User.count()).toBe(count);
+	});
+});

@@ -27,6 +27,8 @@ describe('signing in', () => {
 		expect(set).toMatch(/HttpOnly/i);
 		expect(set).toMatch(/SameSite=Lax/i);
 		expect(set).toMatch(/Path=\//i);
+		// A browser-session cookie: the server's idle and absolute limits decide how long it works.
+		expect(set).not.toMatch(/Max-Age|Expires/i);
 		const home = await call('/', { cookie: sessionCookie(res)! });
 		expect(home.status).toBe(200);
 	});
@@ -171,5 +173,28 @@ describe('changes to an account take effect on the next request', () => {
 		const cookie = await cookieFor(user.id);
 		const res = await call(`/api/users/${user.id}`, { method: 'PATCH', cookie, json: { role: 'curator' } });
 		expect(res.status).toBe(409);
+	});
+});
+
+describe('session limits on the real session table', () => {
+	it('ends a session after 30 idle minutes and deletes it', async () => {
+		const { checkSession } = await import('../../src/lib/server/auth/lucia.ts');
+		const { user } = await makeUser('curator');
+		const id = (await cookieFor(user.id)).split('=')[1]!;
+		const later = (min: number) => new Date(Date.now() + min * 60_000);
+		expect((await checkSession(id, later(29))).user?.id).toBe(user.id);
+		// That request moved the idle deadline to 29 + 30 minutes from now.
+		expect((await checkSession(id, later(58))).user?.id).toBe(user.id);
+		expect(await checkSession(id, later(58 + 31))).toEqual({ user: null, reason: 'expired' });
+		expect(await UserSession.findByPk(id)).toBeNull();
+	});
+
+	it('ends even an active session 12 hours after sign-in', async () => {
+		const { checkSession } = await import('../../src/lib/server/auth/lucia.ts');
+		const { user } = await makeUser('curator');
+		const id = (await cookieFor(user.id)).split('=')[1]!;
+		await UserSession.update({ createdAt: new Date(Date.now() - 12 * 3_600_000 - 1000) }, { where: { id } });
+		expect(await checkSession(id)).toEqual({ user: null, reason: 'expired' });
+		expect((await call('/api/me', { cookie: `meniscus_session=${id}` })).status).toBe(401);
 	});
 });

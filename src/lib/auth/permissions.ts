@@ -19,6 +19,8 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/logout': { POST: 'signed-in' },
 	'/reset': { GET: 'public', POST: 'public' },
 	'/reset/[token]': { GET: 'public', POST: 'public' },
+	// First run without demo data; closes itself once any account exists.
+	'/setup': { GET: 'public', POST: 'public' },
 	// Everybody's home; what it shows depends on the role.
 	'/': { GET: 'signed-in' },
 	'/api/me': { GET: 'signed-in' },
