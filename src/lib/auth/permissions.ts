@@ -25,6 +25,15 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/': { GET: 'signed-in' },
 	'/api/me': { GET: 'signed-in' },
 	'/api/home': { GET: 'signed-in' },
+	// Fluid tools: computations only, nothing stored; every signed-in role may use them.
+	'/fluid': { GET: 'signed-in' },
+	'/api/fluid/strength': { POST: 'signed-in' },
+	'/api/fluid/dilute': { POST: 'signed-in' },
+	'/api/fluid/water': { POST: 'signed-in' },
+	'/api/fluid/top-up': { POST: 'signed-in' },
+	'/api/fluid/jar': { POST: 'signed-in' },
+	'/api/fluid/airspace': { POST: 'signed-in' },
+	'/api/fluid/trend': { POST: 'signed-in' },
 	// Administration.
 	'/admin/users': { GET: ADMIN },
 	'/admin/mailbox': { GET: ADMIN },
