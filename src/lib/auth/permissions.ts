@@ -12,6 +12,7 @@ export type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE' | 'OPTIONS' | '
 export type RouteRule = Partial<Record<Exclude<Method, 'HEAD'>, Access>>;
 
 const ADMIN = ['admin'] as const;
+const CONSERVATOR = ['conservator'] as const;
 
 export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	// Sign-in, sign-out and password recovery.
@@ -25,6 +26,16 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/': { GET: 'signed-in' },
 	'/api/me': { GET: 'signed-in' },
 	'/api/home': { GET: 'signed-in' },
+	// The register. Conservators register and edit specimens; everyone signed in reads them.
+	'/specimens': { GET: 'signed-in' },
+	'/specimens/new': { GET: CONSERVATOR },
+	'/specimens/[id]': { GET: 'signed-in' },
+	'/specimens/[id]/edit': { GET: CONSERVATOR },
+	'/api/specimens': { GET: 'signed-in', POST: CONSERVATOR },
+	'/api/specimens/export': { GET: 'signed-in' },
+	'/api/specimens/[id]': { GET: 'signed-in', PUT: CONSERVATOR },
+	'/api/specimens/[id]/history': { GET: 'signed-in' },
+	'/api/locations': { GET: 'signed-in' },
 	// Fluid tools: computations only, nothing stored; every signed-in role may use them.
 	'/fluid': { GET: 'signed-in' },
 	'/api/fluid/strength': { POST: 'signed-in' },

@@ -9,6 +9,7 @@ export interface NavItem {
 
 export const NAV_ITEMS: readonly NavItem[] = [
 	{ href: '/', label: 'Home', roles: 'all' },
+	{ href: '/specimens', label: 'Register', roles: 'all' },
 	{ href: '/fluid', label: 'Fluid tools', roles: 'all' },
 	{ href: '/admin/users', label: 'Users', roles: ['admin'] },
 	{ href: '/admin/mailbox', label: 'Mailbox', roles: ['admin'] },

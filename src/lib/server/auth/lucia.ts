@@ -13,7 +13,10 @@ import {
 
 /**
  * The only module that knows Lucia. Lucia 3 is no longer maintained upstream (TESTPLAN.md [LV3]),
- * so the rest of the app uses the functions below and a replacement can be dropped in here.
+ * so the rest of the app uses the functions below and a replacement can be dropped in here. Known
+ * gap: Lucia 3 stores the session id itself; current guidance (lucia-auth.com/sessions/basic) is an
+ * id plus a secret whose SHA-256 is stored and compared in constant time. That replacement needs no
+ * change outside this file (the cookie value becomes "id.secret", user_sessions gains secret_hash).
  * Lucia makes the session ids (200 random bits), the cookies and the deletions. Its own
  * `validateSession` is not used: its sliding expiry moves the deadline to a full span whenever half
  * has passed, which cannot express "30 minutes idle, 12 hours at most". The deadline is ours
