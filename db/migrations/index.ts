@@ -1,8 +1,12 @@
 import * as foundation from './20261201000000-foundation.ts';
+import * as checks from './20261202000000-condition-checks.ts';
 
 /**
  * Every migration, in order. Listed by static import rather than found by a file glob, so that
  * they load under any TypeScript loader (tsx for `npm start`, vite-node in the tests); a unit test
  * checks that each file in this folder is listed here.
  */
-export const MIGRATIONS = [{ name: '20261201000000-foundation.ts', ...foundation }];
+export const MIGRATIONS = [
+	{ name: '20261201000000-foundation.ts', ...foundation },
+	{ name: '20261202000000-condition-checks.ts', ...checks },
+];

@@ -27,6 +27,8 @@ export async function openBrowser(): Promise<{ context: BrowserContext; close():
 		args: CHROMIUM_ARGS,
 		viewport: { width: 1180, height: 820 },
 	});
+	// Fail a stuck step with its own message well before the test's 30 s limit.
+	context.setDefaultTimeout(10_000);
 	return {
 		context,
 		async close() {

@@ -33,9 +33,22 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/specimens/[id]/edit': { GET: CONSERVATOR },
 	'/api/specimens': { GET: 'signed-in', POST: CONSERVATOR },
 	'/api/specimens/export': { GET: 'signed-in' },
+	// CSV import of the register: it creates and changes records, so conservators only.
+	'/specimens/import': { GET: CONSERVATOR },
+	'/api/specimens/import/preview': { POST: CONSERVATOR },
+	'/api/specimens/import/commit': { POST: CONSERVATOR },
 	'/api/specimens/[id]': { GET: 'signed-in', PUT: CONSERVATOR },
 	'/api/specimens/[id]/history': { GET: 'signed-in' },
 	'/api/locations': { GET: 'signed-in' },
+	// Condition checks. Conservators open, edit and submit; reviewers approve or return (the workflow
+	// in src/lib/check/workflow.ts decides each transition); everybody signed in reads.
+	'/api/specimens/[id]/checks': { GET: 'signed-in', POST: CONSERVATOR },
+	'/api/checks': { GET: ['conservator', 'reviewer'] },
+	'/api/checks/[id]': { GET: 'signed-in', PUT: CONSERVATOR },
+	'/api/checks/[id]/submit': { POST: CONSERVATOR },
+	'/api/checks/[id]/review': { POST: ['reviewer'] },
+	'/api/vocabulary/terms': { GET: 'signed-in', POST: ADMIN },
+	'/api/settings/intervals': { GET: 'signed-in', PUT: ADMIN },
 	// Fluid tools: computations only, nothing stored; every signed-in role may use them.
 	'/fluid': { GET: 'signed-in' },
 	'/api/fluid/strength': { POST: 'signed-in' },

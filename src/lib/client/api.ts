@@ -7,6 +7,8 @@ export class ApiError extends Error {
 		readonly status: number,
 		message: string,
 		readonly fields: { path: string; message: string }[] = [],
+		/** The whole answer, for routes that send more than a message (e.g. the record now, on 409). */
+		readonly body: unknown = null,
 	) {
 		super(message);
 	}
@@ -25,6 +27,6 @@ export async function api<T>(url: string, init: { method?: string; body?: unknow
 		throw new ApiError(401, 'Signed out');
 	}
 	const data = (await res.json().catch(() => null)) as { error?: string; fields?: ApiError['fields'] } | null;
-	if (!res.ok) throw new ApiError(res.status, data?.error ?? `The server answered ${res.status}.`, data?.fields ?? []);
+	if (!res.ok) throw new ApiError(res.status, data?.error ?? `The server answered ${res.status}.`, data?.fields ?? [], data);
 	return data as T;
 }

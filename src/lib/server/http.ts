@@ -29,15 +29,18 @@ export function zodFields(error: z.ZodError): FieldError[] {
 
 export type Parsed<T> = { ok: true; value: T } | { ok: false; response: Response };
 
-/** Reads a JSON body and validates it; refuses other content types, oversize and bad JSON. */
-export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<Parsed<z.output<S>>> {
+/**
+ * Reads a JSON body and validates it; refuses other content types, oversize and bad JSON. A route
+ * that takes a whole file (the CSV import) names its own, larger cap.
+ */
+export async function readJson<S extends z.ZodType>(request: Request, schema: S, maxBytes = MAX_JSON_BYTES): Promise<Parsed<z.output<S>>> {
 	const type = request.headers.get('content-type') ?? '';
 	if (!/^application\/json\s*(;|$)/i.test(type)) {
 		return { ok: false, response: problem(415, 'Send the body as application/json.') };
 	}
 	const declared = Number(request.headers.get('content-length') ?? '0');
-	if (declared > MAX_JSON_BYTES) return { ok: false, response: problem(413, 'The request body is too large.') };
-	const text = await readCapped(request, MAX_JSON_BYTES);
+	if (declared > maxBytes) return { ok: false, response: problem(413, 'The request body is too large.') };
+	const text = await readCapped(request, maxBytes);
 	if (text === null) return { ok: false, response: problem(413, 'The request body is too large.') };
 	let data: unknown;
 	try {

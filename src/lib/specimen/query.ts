@@ -1,11 +1,12 @@
 import { z } from 'zod';
 import { CONTAINER_SHAPES, HAZARD_FLAGS, PRESERVATIVE_KINDS, SEAL_TYPES } from './vocabulary.ts';
+import { GRADES, PRIORITIES } from '../check/vocabulary.ts';
 
 /**
  * The register's view: search, filters, sort and page, as they appear in the URL so a view can be
  * shared. One schema for the island (reading the address bar) and the API (reading the request).
  */
-export const SORT_KEYS = ['objectNumber', 'title', 'location', 'preservativeKind', 'sealType', 'nextCheckDue', 'updatedAt'] as const;
+export const SORT_KEYS = ['objectNumber', 'title', 'location', 'preservativeKind', 'sealType', 'currentGrade', 'currentPriority', 'nextCheckDue', 'updatedAt'] as const;
 export type SortKey = (typeof SORT_KEYS)[number];
 
 export const DUE_FILTERS = ['overdue', 'within-90-days', 'not-set'] as const;
@@ -20,6 +21,8 @@ export const RegisterQuerySchema = z.object({
 	shape: optional(z.enum(CONTAINER_SHAPES)),
 	hazard: optional(z.enum(HAZARD_FLAGS)),
 	due: optional(z.enum(DUE_FILTERS)),
+	grade: optional(z.enum(GRADES)),
+	priority: optional(z.enum(PRIORITIES)),
 	sort: z.enum(SORT_KEYS).catch('objectNumber'),
 	dir: z.enum(['asc', 'desc']).catch('asc'),
 	page: z.coerce.number().int().min(1).max(100_000).catch(1),

@@ -19,7 +19,7 @@ export const ObjectNumberSchema = z
 	.max(40, 'An object number has at most 40 characters.')
 	.regex(/^[A-Za-z0-9][A-Za-z0-9./:\- ]*$/, 'Use letters, digits and . / : - only.');
 
-const mm = z.number().positive('Must be more than 0 mm.').max(5000, 'At most 5000 mm.');
+const mm = z.number({ error: 'Enter a size in mm.' }).positive('Must be more than 0 mm.').max(5000, 'At most 5000 mm.');
 
 export const HazardSchema = z.object({
 	flag: z.enum(HAZARD_FLAGS),

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { HazardSchema } from './schema.ts';
+import { GRADES, PRIORITIES } from '../check/vocabulary.ts';
 import { CLOSURE_TYPES, CONTAINER_MATERIALS, CONTAINER_SHAPES, PRESERVATIVE_KINDS, SEAL_TYPES } from './vocabulary.ts';
 
 /** A specimen as the API shows it. */
@@ -21,6 +22,9 @@ export const SpecimenViewSchema = z.object({
 	sealType: z.enum(SEAL_TYPES),
 	hazards: z.array(HazardSchema),
 	nextCheckDue: z.string().nullable(),
+	currentGrade: z.enum(GRADES).nullable(),
+	currentPriority: z.enum(PRIORITIES).nullable(),
+	lastCheckedOn: z.string().nullable(),
 	version: z.number(),
 	createdAt: z.string(),
 	updatedAt: z.string(),

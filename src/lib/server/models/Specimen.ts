@@ -7,6 +7,7 @@ import type {
 	PreservativeKind,
 	SealType,
 } from '../../specimen/vocabulary.ts';
+import type { Grade, Priority } from '../../check/vocabulary.ts';
 
 /**
  * One jar and what is in it (DESIGN.md §3). Dimensions are stored as DECIMAL, which pg returns as
@@ -31,6 +32,10 @@ export class Specimen extends Model<InferAttributes<Specimen>, InferCreationAttr
 	declare sealType: SealType;
 	declare hazards: CreationOptional<{ flag: HazardFlag; note: string }[]>;
 	declare nextCheckDue: string | null;
+	/** The condition found by the latest approved check (kept here so the register can filter on it). */
+	declare currentGrade: CreationOptional<Grade | null>;
+	declare currentPriority: CreationOptional<Priority | null>;
+	declare lastCheckedOn: CreationOptional<string | null>;
 	declare version: CreationOptional<number>;
 	declare createdAt: CreationOptional<Date>;
 	declare updatedAt: CreationOptional<Date>;
@@ -64,6 +69,9 @@ export class Specimen extends Model<InferAttributes<Specimen>, InferCreationAttr
 				sealType: { type: DataTypes.STRING(10), allowNull: false },
 				hazards: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
 				nextCheckDue: { type: DataTypes.DATEONLY, allowNull: true },
+				currentGrade: { type: DataTypes.STRING(12), allowNull: true },
+				currentPriority: { type: DataTypes.STRING(8), allowNull: true },
+				lastCheckedOn: { type: DataTypes.DATEONLY, allowNull: true },
 				version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
 				createdAt: DataTypes.DATE,
 				updatedAt: DataTypes.DATE,

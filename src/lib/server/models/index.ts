@@ -1,6 +1,9 @@
 import type { Sequelize } from 'sequelize';
 import { AuditEvent } from './AuditEvent.ts';
 import { AuthToken } from './AuthToken.ts';
+import { ConditionCheck } from './ConditionCheck.ts';
+import { DamageTerm } from './DamageTerm.ts';
+import { GradeInterval } from './GradeInterval.ts';
 import { LoginThrottle } from './LoginThrottle.ts';
 import { OutgoingMail } from './OutgoingMail.ts';
 import { Specimen } from './Specimen.ts';
@@ -9,15 +12,19 @@ import { User } from './User.ts';
 import { UserSession } from './UserSession.ts';
 
 export type { TokenPurpose } from './AuthToken.ts';
-export { AuditEvent, AuthToken, LoginThrottle, OutgoingMail, Specimen, StorageLocation, User, UserSession };
+export { AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Specimen, StorageLocation, User, UserSession };
 
 /** Binds every model to one connection and declares the associations. */
 export function initModels(sequelize: Sequelize): void {
-	for (const m of [AuditEvent, AuthToken, LoginThrottle, OutgoingMail, Specimen, StorageLocation, User, UserSession]) {
+	for (const m of [AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Specimen, StorageLocation, User, UserSession]) {
 		m.initModel(sequelize);
 	}
 	Specimen.belongsTo(StorageLocation, { foreignKey: 'storageLocationId', as: 'location' });
 	StorageLocation.hasMany(Specimen, { foreignKey: 'storageLocationId' });
 	AuthToken.belongsTo(User, { foreignKey: 'userId' });
 	UserSession.belongsTo(User, { foreignKey: 'userId' });
+	ConditionCheck.belongsTo(Specimen, { foreignKey: 'specimenId', as: 'specimen' });
+	Specimen.hasMany(ConditionCheck, { foreignKey: 'specimenId', as: 'checks' });
+	ConditionCheck.belongsTo(User, { foreignKey: 'examinerId', as: 'examiner' });
+	ConditionCheck.belongsTo(User, { foreignKey: 'reviewerId', as: 'reviewer' });
 }

@@ -1,16 +1,13 @@
 import Papa from 'papaparse';
 import type { SpecimenView } from '../../specimen/view.ts';
+import { IMPORT_FIELDS } from '../../specimen/csvImport.ts';
 
 /**
  * The register as CSV, one specimen a row, columns named as the import expects them. Cells that a
  * spreadsheet would run as a formula (=, +, -, @, tab, CR at the start) get a leading apostrophe
  * (OWASP, "CSV Injection").
  */
-export const EXPORT_COLUMNS = [
-	'object_number', 'title', 'description', 'department', 'location_code', 'preservative_recorded',
-	'preservative_kind', 'container_shape', 'inner_width_mm', 'inner_depth_mm', 'inner_height_mm',
-	'container_material', 'closure_type', 'seal_type', 'hazards', 'next_check_due',
-] as const;
+export const EXPORT_COLUMNS = IMPORT_FIELDS;
 
 const defuse = (v: string) => (/^[=+\-@\t\r]/.test(v) ? `'${v}` : v);
 

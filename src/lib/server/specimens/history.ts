@@ -9,7 +9,7 @@ export async function recordHistory(entityType: string, entityId: string, limit 
 	return events.map((e) => {
 		const before = (e.before ?? {}) as Record<string, unknown>;
 		const after = (e.after ?? {}) as Record<string, unknown>;
-		const fields = e.action.endsWith('.create') ? [] : [...new Set([...Object.keys(before), ...Object.keys(after)])];
+		const fields = /[.-]create$/.test(e.action) ? [] : [...new Set([...Object.keys(before), ...Object.keys(after)])];
 		return {
 			id: Number(e.id),
 			at: e.occurredAt.toISOString(),

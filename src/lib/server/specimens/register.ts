@@ -15,8 +15,11 @@ const ORDER: Record<SortKey, (dir: 'ASC' | 'DESC') => Order> = {
 	location: (d) => [[{ model: StorageLocation, as: 'location' }, 'code', d], ['objectNumber', 'ASC']],
 	preservativeKind: (d) => [['preservativeKind', d], ['objectNumber', 'ASC']],
 	sealType: (d) => [['sealType', d], ['objectNumber', 'ASC']],
-	nextCheckDue: (d) => [[literal(`"Specimen"."next_check_due" ${d} NULLS LAST`) as never], ['objectNumber', 'ASC']],
+	nextCheckDue: (d) => [literal(`"Specimen"."next_check_due" ${d} NULLS LAST`), ['objectNumber', 'ASC']],
 	updatedAt: (d) => [['updatedAt', d], ['objectNumber', 'ASC']],
+	// By severity, not alphabet; jars never checked sort last either way.
+	currentGrade: (d) => [literal(`array_position(ARRAY['good','fair','poor','unacceptable']::varchar[], "Specimen"."current_grade") ${d} NULLS LAST`), ['objectNumber', 'ASC']],
+	currentPriority: (d) => [literal(`array_position(ARRAY['none','routine','high','urgent']::varchar[], "Specimen"."current_priority") ${d} NULLS LAST`), ['objectNumber', 'ASC']],
 };
 
 export function registerWhere(q: RegisterQuery, today = new Date()): WhereOptions {
@@ -37,6 +40,8 @@ export function registerWhere(q: RegisterQuery, today = new Date()): WhereOption
 		and.push({ nextCheckDue: { [Op.gte]: day, [Op.lt]: until } });
 	}
 	if (q.due === 'not-set') and.push({ nextCheckDue: null });
+	if (q.grade) and.push({ currentGrade: q.grade });
+	if (q.priority) and.push({ currentPriority: q.priority });
 	return { [Op.and]: and };
 }
 

@@ -1,0 +1,70 @@
+// Register query at collection scale: a throwaway PostgreSQL with 10,000 invented specimens, then
+// the register's first page under the common views, against a baseline measured in the same run
+// (one round trip `SELECT 1`, and `SELECT count(*)` over the table). Prints medians and p95 in ms
+// and ratios to the baseline. Run: `npm run bench`.
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { freePort, removeCluster, startCluster } from '../db/cluster.mjs';
+import { openSequelize } from '../src/lib/server/db.ts';
+import { migrateUp } from '../db/migrate.ts';
+import { seedDemo } from '../db/seeders/demo.ts';
+import { insertGenerated } from '../db/seeders/generated.ts';
+import { RegisterQuerySchema } from '../src/lib/specimen/query.ts';
+
+const N = Number(process.env.BENCH_SPECIMENS ?? 10_000);
+const RUNS = Number(process.env.BENCH_RUNS ?? 40);
+const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'meniscus-bench-'));
+fs.chmodSync(tmp, 0o755);
+const dataDir = path.join(tmp, 'pg', 'data');
+
+async function time(fn: () => Promise<unknown>): Promise<{ median: number; p95: number }> {
+	for (let i = 0; i < 3; i++) await fn(); // warm caches and plans
+	const ms: number[] = [];
+	for (let i = 0; i < RUNS; i++) {
+		const t = performance.now();
+		await fn();
+		ms.push(performance.now() - t);
+	}
+	ms.sort((a, b) => a - b);
+	return { median: ms[Math.floor(ms.length / 2)]!, p95: ms[Math.floor(ms.length * 0.95)]! };
+}
+
+try {
+	const db = await startCluster({ dataDir, port: await freePort(), log: () => {}, database: 'bench' });
+	process.env.DATABASE_URL = db.url;
+	const seq = openSequelize(db.url);
+	await migrateUp(seq);
+	await seedDemo(seq, { password: 'bench-password-not-used' });
+	const t0 = performance.now();
+	await insertGenerated(seq, N);
+	await seq.query('ANALYZE');
+	console.log(`inserted ${N} specimens in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
+	const { registerPage } = await import('../src/lib/server/specimens/register.ts');
+	const { db: appDb } = await import('../src/lib/server/db.ts');
+	appDb();
+	const q = (over: Record<string, string>) => RegisterQuerySchema.parse(over);
+	const cases: [string, () => Promise<unknown>][] = [
+		['baseline: SELECT 1', () => seq.query('SELECT 1')],
+		['baseline: count(*) of specimens', () => seq.query('SELECT count(*) FROM specimens')],
+		['first page, by object number', () => registerPage(q({}))],
+		['first page, by next check due', () => registerPage(q({ sort: 'nextCheckDue' }))],
+		['search "frog"', () => registerPage(q({ q: 'frog' }))],
+		['filter formalin + overdue', () => registerPage(q({ preservative: 'formalin', due: 'overdue' }))],
+		['filter hazard lead', () => registerPage(q({ hazard: 'lead' }))],
+		['page 100, by location', () => registerPage(q({ sort: 'location', page: '100' }))],
+	];
+	const results: [string, { median: number; p95: number }][] = [];
+	for (const [name, fn] of cases) results.push([name, await time(fn)]);
+	const base = results[1]![1].median;
+	console.log(`\n${N} specimens, ${RUNS} runs each (ms)          median      p95   × count(*)`);
+	for (const [name, r] of results) {
+		console.log(`${name.padEnd(40)} ${r.median.toFixed(2).padStart(8)} ${r.p95.toFixed(2).padStart(8)} ${(r.median / base).toFixed(2).padStart(10)}`);
+	}
+	await seq.close();
+	const { closeDb } = await import('../src/lib/server/db.ts');
+	await closeDb();
+} finally {
+	await removeCluster({ dataDir }).catch(() => {});
+	fs.rmSync(tmp, { recursive: true, force: true });
+}
