@@ -13,7 +13,7 @@ try {
 	console.log(applied.length ? `Applied migrations: ${applied.join(', ')}` : 'Database schema is up to date.');
 	if (process.env.MENISCUS_SEED !== 'none') {
 		const r = await seedDemo(sequelize, { password: demoPassword() });
-		console.log(r.seeded ? `Seeded the demo collection: ${r.users} users, ${r.specimens} specimens.` : `Demo data not added: ${r.reason}.`);
+		console.log(r.seeded ? `Seeded the demo collection: ${r.users} users, ${r.specimens} specimens, ${r.checks} condition checks.` : `Demo data not added: ${r.reason}.`);
 		// Optional: many invented jars to try the register at scale (only with a fresh demo).
 		const large = Number(process.env.MENISCUS_SEED_LARGE ?? 0);
 		if (r.seeded && large > 0) console.log(`Added ${await insertGenerated(sequelize, Math.min(large, 200_000))} generated specimens.`);

@@ -3,6 +3,7 @@ import { QueryTypes } from 'sequelize';
 import { hashPassword } from '../../src/lib/server/auth/password.ts';
 import type { Role } from '../../src/lib/auth/roles.ts';
 import { DEMO_LOCATIONS, DEMO_SPECIMENS, DEMO_USERS } from './demoData.ts';
+import { seedDemoChecks } from './demoChecks.ts';
 
 /**
  * The demo collection: an invented teaching collection, its people and its jars. It goes only into
@@ -10,7 +11,7 @@ import { DEMO_LOCATIONS, DEMO_SPECIMENS, DEMO_USERS } from './demoData.ts';
  */
 export { DEFAULT_DEMO_PASSWORD, demoPassword } from './demoPassword.mjs';
 
-export type SeedResult = { seeded: true; users: number; specimens: number } | { seeded: false; reason: string };
+export type SeedResult = { seeded: true; users: number; specimens: number; checks: number } | { seeded: false; reason: string };
 
 export async function seedDemo(sequelize: Sequelize, opts: { password: string; today?: Date }): Promise<SeedResult> {
 	const [counts] = await sequelize.query<{ users: string; specimens: string }>(
@@ -23,7 +24,7 @@ export async function seedDemo(sequelize: Sequelize, opts: { password: string; t
 	const hash = await hashPassword(opts.password);
 	const today = opts.today ?? new Date();
 	const day = (offset: number) => new Date(today.getTime() + offset * 86_400_000).toISOString().slice(0, 10);
-	await sequelize.transaction(async (transaction) => {
+	const checks = await sequelize.transaction(async (transaction) => {
 		const qi = sequelize.getQueryInterface();
 		const stamp = { created_at: today, updated_at: today };
 		await qi.bulkInsert(
@@ -62,6 +63,12 @@ export async function seedDemo(sequelize: Sequelize, opts: { password: string; t
 			})),
 			{ transaction },
 		);
+		const people = await sequelize.query<{ id: string; role: Role }>(`SELECT id, role FROM users WHERE role IN ('conservator', 'reviewer')`, {
+			type: QueryTypes.SELECT,
+			transaction,
+		});
+		const idOf = (role: Role) => people.find((u) => u.role === role)!.id;
+		return seedDemoChecks(sequelize, transaction, { today, users: { conservatorId: idOf('conservator'), reviewerId: idOf('reviewer') } });
 	});
-	return { seeded: true, users: DEMO_USERS.length, specimens: DEMO_SPECIMENS.length };
+	return { seeded: true, users: DEMO_USERS.length, specimens: DEMO_SPECIMENS.length, checks };
 }

@@ -4,6 +4,9 @@ import { api } from '../lib/client/api.ts';
 import type { HomeSummary } from '../lib/home/schema.ts';
 import { LABELS } from '../lib/specimen/vocabulary.ts';
 import { ROLE_LABELS, type Role } from '../lib/auth/roles.ts';
+import type { CheckView } from '../lib/check/view.ts';
+import { CHECK_LABELS } from '../lib/check/vocabulary.ts';
+import { GradeBadge } from './check/GradeBadge.tsx';
 
 /** The home page's figures, fetched from /api/home; each role sees its own part. */
 export default function HomeDashboard() {
@@ -23,23 +26,42 @@ function Dashboard() {
 		<div className="space-y-8" data-testid={`home-${h.role}`}>
 			{h.openChecks !== null && (
 				<Section title="My open condition checks">
-					<Empty>
-						You have no open condition checks. When a jar is due or flagged, open a check from its specimen record and it will
-						wait here until you submit it for review.
-					</Empty>
+					<CheckList
+						view="mine"
+						empty="You have no open condition checks. When a jar is due or flagged, open a check from its record in the register; it waits here until you submit it for review."
+					/>
 				</Section>
 			)}
 			{h.awaitingReview !== null && (
 				<Section title="Waiting for review">
-					<Empty>
-						Nothing is waiting for your review. Checks and risk assessments that conservators submit will queue here, oldest
-						first.
-					</Empty>
+					<CheckList view="queue" empty="Nothing is waiting for your review. Checks that conservators submit queue here, oldest first." />
 				</Section>
 			)}
 			{h.collection && <Collection c={h.collection} />}
 			{h.admin && <Admin a={h.admin} />}
 		</div>
+	);
+}
+
+function CheckList({ view, empty }: { view: 'mine' | 'queue'; empty: string }) {
+	const q = useQuery({ queryKey: ['checks', view], queryFn: () => api<{ checks: CheckView[] }>(`/api/checks?view=${view}`) });
+	if (q.isPending) return <p role="status">Loading…</p>;
+	if (q.isError) return <p className="notice-error" role="alert">{q.error.message}</p>;
+	if (q.data.checks.length === 0) return <Empty>{empty}</Empty>;
+	return (
+		<ul className="divide-y divide-ink-100" data-testid={`checks-${view}`}>
+			{q.data.checks.map((c) => (
+				<li key={c.id} className="flex flex-wrap items-center gap-3 py-2">
+					<a className="font-mono font-semibold text-glass-700 underline" href={`/checks/${c.id}`}>{c.specimen.objectNumber}</a>
+					<span>{c.specimen.title}</span>
+					<GradeBadge grade={c.overallGrade} />
+					<span className="ml-auto text-sm text-ink-700">
+						{CHECK_LABELS.state[c.state]}
+						{view === 'queue' ? ` since ${c.submittedAt?.slice(0, 10)} · ${c.examiner.name}` : ` · checked ${c.checkedOn}`}
+					</span>
+				</li>
+			))}
+		</ul>
 	);
 }
 

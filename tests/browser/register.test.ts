@@ -1,24 +1,15 @@
-import { describe, expect, inject, it } from 'vitest';
-import type { Page } from 'playwright-core';
-import { screenshotPath, useBrowser } from '../helpers/browser.ts';
+import { describe, expect, it } from 'vitest';
+import { screenshotPath, signInAs, useBrowser } from '../helpers/browser.ts';
 
 /** A conservator registers and edits a jar; a curator finds it in the register. */
 const browser = useBrowser();
-const base = () => inject('baseUrl');
 const number = `BR.${process.pid}.${Date.now() % 100000}`;
 
-async function signIn(page: Page, email: string, next: string) {
-	await browser().clearCookies();
-	await page.goto(`${base()}/login?next=${encodeURIComponent(next)}`);
-	await page.fill('#email', email);
-	await page.fill('#password', inject('demoPassword'));
-	await Promise.all([page.waitForURL((u) => u.pathname === next), page.click('button[type=submit]')]);
-}
 
 describe('the register in a browser', () => {
 	it('registers, edits and finds a specimen', async () => {
 		const page = await browser().newPage();
-		await signIn(page, 'conservator@example.org', '/specimens/new');
+		await signInAs(page, 'conservator@example.org', '/specimens/new');
 		await page.getByLabel('Object number').fill(number);
 		await page.getByLabel('Title').fill('Browser axolotl, whole');
 		await page.getByLabel('Shape').selectOption('oval');
@@ -43,7 +34,7 @@ describe('the register in a browser', () => {
 		await page.waitForSelector('text=edited the record');
 		await page.screenshot({ path: screenshotPath('specimen-detail'), fullPage: true });
 
-		await signIn(page, 'curator@example.org', '/specimens');
+		await signInAs(page, 'curator@example.org', '/specimens');
 		await page.getByLabel('Search').fill(number);
 		await expect.poll(() => page.locator('[data-testid=register-row]').count()).toBe(1);
 		expect(new URL(page.url()).searchParams.get('q')).toBe(number);

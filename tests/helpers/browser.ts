@@ -1,8 +1,8 @@
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { afterAll, beforeAll } from 'vitest';
-import { chromium, type BrowserContext } from 'playwright-core';
+import { afterAll, beforeAll, inject } from 'vitest';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
 
 /**
  * Debian's Chromium driven by playwright-core, with a fresh profile each time and the flags this
@@ -57,4 +57,13 @@ export function useBrowser(): () => BrowserContext {
 		if (!browser) throw new Error('the browser is not open yet');
 		return browser.context;
 	};
+}
+
+/** Signs in on the real form as a demo role (or an address) and waits until `next` has loaded. */
+export async function signInAs(page: Page, who: string, next: string): Promise<void> {
+	await page.context().clearCookies();
+	await page.goto(`${inject('baseUrl')}/login?next=${encodeURIComponent(next)}`);
+	await page.fill('#email', who.includes('@') ? who : `${who}@example.org`);
+	await page.fill('#password', inject('demoPassword'));
+	await Promise.all([page.waitForURL((u) => u.pathname === next.split('?')[0]), page.click('button[type=submit]')]);
 }

@@ -1,6 +1,7 @@
 import Papa from 'papaparse';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { call, useTestDatabase } from '../helpers/server.ts';
+import { specimenRecord } from '../helpers/specimens.ts';
 import { cookieFor, makeUser } from '../helpers/users.ts';
 import { AuditEvent, Specimen, StorageLocation } from '../../src/lib/server/models/index.ts';
 import { createSpecimen } from '../../src/lib/server/specimens/service.ts';
@@ -8,21 +9,8 @@ import { SpecimenSchema } from '../../src/lib/specimen/schema.ts';
 
 /** The register over HTTP: create, read, edit with optimistic locking, audit trail, export. */
 const prefix = `RT${process.pid}`;
-let n = 0;
-const objectNumber = () => `${prefix}.${String(n++).padStart(3, '0')}`;
-const record = (over: Record<string, unknown> = {}) => ({
-	objectNumber: objectNumber(),
-	title: 'Test newt, whole',
-	preservativeKind: 'ethanol',
-	containerShape: 'cylinder',
-	innerWidthMm: 80,
-	innerHeightMm: 160,
-	containerMaterial: 'soda-lime',
-	closureType: 'glass-lid',
-	sealType: 'silicone',
-	hazards: [{ flag: 'flammable-spirit', note: '' }],
-	...over,
-});
+const record = (over: Record<string, unknown> = {}) => specimenRecord(prefix, over);
+const objectNumber = () => specimenRecord(prefix).objectNumber;
 
 let conservator = '';
 let curator = '';

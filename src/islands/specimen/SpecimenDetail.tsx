@@ -5,6 +5,9 @@ import type { HistoryEntry, SpecimenView } from '../../lib/specimen/view.ts';
 import { LABELS } from '../../lib/specimen/vocabulary.ts';
 import { innerVolumeMl, mlPerMm } from '../../lib/fluid/jar.ts';
 import { FIELD_LABELS, showValue } from '../../lib/specimen/fieldLabels.ts';
+import { CHECK_LABELS } from '../../lib/check/vocabulary.ts';
+import { GradeBadge } from '../check/GradeBadge.tsx';
+import { CheckHistory } from './CheckHistory.tsx';
 
 /** A specimen's record, its jar in numbers, and the trail of every change to the record. */
 export default function SpecimenDetail({ id, canEdit }: { id: string; canEdit: boolean }) {
@@ -32,7 +35,15 @@ function Detail({ id, canEdit }: { id: string; canEdit: boolean }) {
 					<h1 className="text-3xl font-semibold">{s.title}</h1>
 					<p className="mt-1 text-ink-700">{s.department || 'No department recorded'}</p>
 				</div>
-				{canEdit && <a className="btn-primary" href={`/specimens/${s.id}/edit`}>Edit the record</a>}
+				<div className="flex flex-col items-end gap-2">
+					<div data-testid="current-condition" className="text-right text-sm">
+						<span className="text-ink-700">Current condition </span>
+						<GradeBadge grade={s.currentGrade} />
+						{s.currentPriority && <span className="ml-2">· priority {CHECK_LABELS.priority[s.currentPriority].toLowerCase()}</span>}
+						{s.lastCheckedOn && <span className="block text-ink-600">last approved check {s.lastCheckedOn}</span>}
+					</div>
+					{canEdit && <a className="btn-secondary" href={`/specimens/${s.id}/edit`}>Edit the record</a>}
+				</div>
 			</div>
 			{saved && <p className="notice-info" role="status">Saved.</p>}
 			{s.hazards.length > 0 && (
@@ -46,6 +57,7 @@ function Detail({ id, canEdit }: { id: string; canEdit: boolean }) {
 					<p className="mt-2">Open, handle or treat it only under your organisation’s risk assessment and local regulations.</p>
 				</div>
 			)}
+			<CheckHistory specimenId={s.id} canOpen={canEdit} />
 			<div className="grid gap-6 lg:grid-cols-2">
 				<section className="card" aria-labelledby="rec-h">
 					<h2 id="rec-h" className="text-xl font-semibold">Record</h2>

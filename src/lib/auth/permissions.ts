@@ -42,6 +42,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/locations': { GET: 'signed-in' },
 	// Condition checks. Conservators open, edit and submit; reviewers approve or return (the workflow
 	// in src/lib/check/workflow.ts decides each transition); everybody signed in reads.
+	'/checks/[id]': { GET: 'signed-in' },
 	'/api/specimens/[id]/checks': { GET: 'signed-in', POST: CONSERVATOR },
 	'/api/checks': { GET: ['conservator', 'reviewer'] },
 	'/api/checks/[id]': { GET: 'signed-in', PUT: CONSERVATOR },

@@ -5,18 +5,18 @@ import type { HomeSummary } from '../../home/schema.ts';
 
 /**
  * The figures behind each role's home page, computed in SQL so they stay cheap at thousands of
- * jars. Condition checks arrive with the register issue; until then their counts are 0, not
- * invented.
+ * jars; the lists themselves (my open checks, the review queue) come from /api/checks.
  */
-export async function homeSummary(role: Role, today = new Date()): Promise<HomeSummary> {
+export async function homeSummary(role: Role, userId: string, today = new Date()): Promise<HomeSummary> {
 	const day = today.toISOString().slice(0, 10);
 	const collection = role === 'admin' ? null : await collectionFigures(day);
 	const admin = role === 'admin' ? await adminFigures() : null;
+	const count = (sql: string) => db().query<{ n: string }>(sql, { type: QueryTypes.SELECT, replacements: { userId } }).then((r) => Number(r[0]?.n ?? 0));
 	return {
 		role,
 		collection,
-		openChecks: role === 'conservator' ? 0 : null,
-		awaitingReview: role === 'reviewer' ? 0 : null,
+		openChecks: role === 'conservator' ? await count(`SELECT count(*) AS n FROM condition_checks WHERE examiner_id = :userId AND state IN ('draft','returned')`) : null,
+		awaitingReview: role === 'reviewer' ? await count(`SELECT count(*) AS n FROM condition_checks WHERE state = 'in-review' AND examiner_id <> :userId`) : null,
 		admin,
 	};
 }

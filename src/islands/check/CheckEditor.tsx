@@ -1,0 +1,174 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
+import { QueryRoot } from '../QueryRoot.tsx';
+import { api, ApiError } from '../../lib/client/api.ts';
+import type { CheckView } from '../../lib/check/view.ts';
+import type { CheckBodyInput } from '../../lib/check/schema.ts';
+import { CHECK_LABELS, PARTS, PRIORITIES, REASONS, type Grade, type Part, type Priority } from '../../lib/check/vocabulary.ts';
+import { suggestedPriority, worstGrade } from '../../lib/check/grading.ts';
+import { LABELS } from '../../lib/specimen/vocabulary.ts';
+import { PartsGrid, type PartsValue } from './PartsGrid.tsx';
+import { FluidFields, emptyFluid, type FluidValue } from './FluidFields.tsx';
+import { ReviewPanel } from './ReviewPanel.tsx';
+import { GradeBadge } from './GradeBadge.tsx';
+
+/**
+ * One condition check: graded part by part, with the fluid readings and the overall grade and
+ * priority that follow; saved as a draft, submitted, and reviewed. What a person may do here is what
+ * the server's workflow allows; the page only hides the rest.
+ */
+export default function CheckEditor({ id, role, userId }: { id: string; role: string; userId: string }) {
+	return (
+		<QueryRoot>
+			<Loader id={id} role={role} userId={userId} />
+		</QueryRoot>
+	);
+}
+
+type One = { check: CheckView };
+
+/** The editable readings of a saved check (the real strength is the server's to compute). */
+function fluidOf(check: CheckView): FluidValue {
+	if (!check.fluid) return emptyFluid();
+	const { realPercentVol: _computed, ...readings } = check.fluid;
+	return readings;
+}
+
+function Loader(props: { id: string; role: string; userId: string }) {
+	const check = useQuery({ queryKey: ['check', props.id], queryFn: () => api<One>(`/api/checks/${props.id}`) });
+	const terms = useQuery({ queryKey: ['terms'], queryFn: () => api<{ terms: Record<Part, string[]> }>('/api/vocabulary/terms') });
+	const failed = check.error ?? terms.error;
+	if (failed) return <p className="notice-error" role="alert">{failed.message}</p>;
+	if (!check.data || !terms.data) return <p role="status">Loading the check…</p>;
+	// Remount the form whenever the server's version changes, so it starts from what was saved.
+	return <Editor key={check.data.check.version} check={check.data.check} terms={terms.data.terms} {...props} />;
+}
+
+function Editor({ check, terms, role, userId }: { check: CheckView; terms: Record<Part, string[]>; role: string; userId: string }) {
+	const qc = useQueryClient();
+	const editable = role === 'conservator' && (check.state === 'draft' || check.state === 'returned');
+	const [checkedOn, setCheckedOn] = useState(check.checkedOn);
+	const [reason, setReason] = useState(check.reason);
+	const [parts, setParts] = useState<PartsValue>(check.parts);
+	const [fluid, setFluid] = useState<FluidValue>(() => fluidOf(check));
+	const [notes, setNotes] = useState(check.notes);
+	const [priority, setPriority] = useState<Priority | ''>(check.priority ?? '');
+	const [override, setOverride] = useState<{ grade: Grade | ''; reason: string }>({ grade: check.overallOverrideReason ? (check.overallGrade ?? '') : '', reason: check.overallOverrideReason ?? '' });
+	const [message, setMessage] = useState<string | null>(null);
+	const worst = worstGrade(PARTS.map((p) => parts[p].grade));
+	const toxic = check.specimen.hazards.some((h) => h.flag !== 'flammable-spirit');
+	const suggestion = suggestedPriority(override.grade || worst, toxic);
+
+	const body = (): CheckBodyInput => ({
+		checkedOn,
+		reason,
+		parts,
+		overallOverride: override.grade ? { grade: override.grade, reason: override.reason } : null,
+		priority: priority || null,
+		notes,
+		fluid,
+	});
+	const refresh = (c: CheckView) => qc.setQueryData(['check', c.id], { check: c });
+	const onError = (e: ApiError) => setMessage([e.message, ...e.fields.map((f) => `${f.path}: ${f.message}`)].join(' '));
+	const save = useMutation<One, ApiError, void>({ mutationFn: () => api<One>(`/api/checks/${check.id}`, { method: 'PUT', body: { version: check.version, check: body() } }), onSuccess: (r) => refresh(r.check), onError });
+	const submit = useMutation<One, ApiError, void>({
+		mutationFn: async () => {
+			const saved = await api<One>(`/api/checks/${check.id}`, { method: 'PUT', body: { version: check.version, check: body() } });
+			return api<One>(`/api/checks/${check.id}/submit`, { method: 'POST', body: { version: saved.check.version } });
+		},
+		onSuccess: (r) => refresh(r.check),
+		onError,
+	});
+	const decide = useMutation<One, ApiError, { decision: 'approve' | 'return'; comment: string }>({
+		mutationFn: (d) => api<One>(`/api/checks/${check.id}/review`, { method: 'POST', body: d }),
+		onSuccess: (r) => refresh(r.check),
+		onError,
+	});
+	const busy = save.isPending || submit.isPending || decide.isPending;
+
+	return (
+		<div className="space-y-6">
+			<header className="flex flex-wrap items-start justify-between gap-4" data-testid="check-header">
+				<div>
+					<a className="font-mono text-sm font-semibold text-glass-700 underline" href={`/specimens/${check.specimen.id}`}>{check.specimen.objectNumber}</a>
+					<h1 className="text-3xl font-semibold">Condition check: {check.specimen.title}</h1>
+					<p className="mt-1 text-ink-700">
+						{CHECK_LABELS.state[check.state]} · examined by {check.examiner.name}
+						{check.correctsCheckId && ' · corrects an earlier approved check'}
+					</p>
+				</div>
+				<div className="text-right" data-testid="overall">
+					<p className="text-sm text-ink-700">Overall condition</p>
+					<GradeBadge grade={(override.grade || worst) as Grade | null} />
+				</div>
+			</header>
+			{check.state === 'returned' && check.reviewComment && (
+				<div className="notice-caution" role="status">
+					<p className="font-semibold">Returned by {check.reviewer?.name}:</p>
+					<p>{check.reviewComment}</p>
+				</div>
+			)}
+			{check.state === 'approved' && <p className="notice-info">Approved by {check.reviewer?.name} on {check.reviewedAt?.slice(0, 10)}. This check is part of the permanent record and cannot be changed; a correction is a new check.</p>}
+			{check.specimen.hazards.length > 0 && (
+				<p className="notice-caution">Hazards recorded: {check.specimen.hazards.map((h) => LABELS.hazard[h.flag as keyof typeof LABELS.hazard] ?? h.flag).join('; ')}. Open and handle the jar only under your organisation’s risk assessment and local regulations.</p>
+			)}
+			<section className="card grid gap-4 sm:grid-cols-2">
+				<div>
+					<label className="field-label" htmlFor="ck-date">Date of the check</label>
+					<input id="ck-date" type="date" className="field-input" value={checkedOn} readOnly={!editable} onChange={(e) => setCheckedOn(e.target.value)} />
+				</div>
+				<div>
+					<label className="field-label" htmlFor="ck-reason">Reason</label>
+					<select id="ck-reason" className="field-input" value={reason} disabled={!editable} onChange={(e) => setReason(e.target.value as typeof reason)}>
+						{REASONS.map((r) => <option key={r} value={r}>{CHECK_LABELS.reason[r]}</option>)}
+					</select>
+				</div>
+			</section>
+			<section className="card" aria-labelledby="parts-h">
+				<h2 id="parts-h" className="text-xl font-semibold">Part by part</h2>
+				<p className="mt-1 text-sm text-ink-700">Good: sound. Fair: minor, mainly aesthetic. Poor: unstable or large losses. Unacceptable: actively deteriorating or a danger to other objects. Qualify each grade with what you see.</p>
+				<PartsGrid value={parts} onChange={setParts} terms={terms} readOnly={!editable} />
+			</section>
+			<section className="card" aria-labelledby="fluid-h">
+				<h2 id="fluid-h" className="mb-3 text-xl font-semibold">Fluid</h2>
+				<FluidFields value={fluid} onChange={setFluid} readOnly={!editable} />
+			</section>
+			<section className="card grid gap-4 sm:grid-cols-2" aria-labelledby="outcome-h">
+				<h2 id="outcome-h" className="text-xl font-semibold sm:col-span-2">Outcome</h2>
+				<div>
+					<label className="field-label" htmlFor="ck-override">Overall condition</label>
+					<select id="ck-override" className="field-input" disabled={!editable} value={override.grade} onChange={(e) => setOverride({ ...override, grade: e.target.value as Grade | '' })}>
+						<option value="">The worst part’s grade{worst ? ` (${CHECK_LABELS.grade[worst]})` : ''}</option>
+						{(['good', 'fair', 'poor', 'unacceptable'] as const).filter((g) => g !== worst).map((g) => <option key={g} value={g}>{CHECK_LABELS.grade[g]} (say why)</option>)}
+					</select>
+					{override.grade && (
+						<textarea aria-label="Why the overall grade differs from the worst part" className="field-input mt-2 min-h-[4rem] py-2" readOnly={!editable} placeholder="Why the overall grade differs from the worst part" value={override.reason} onChange={(e) => setOverride({ ...override, reason: e.target.value })} />
+					)}
+				</div>
+				<div>
+					<label className="field-label" htmlFor="ck-priority">Treatment priority</label>
+					<select id="ck-priority" className="field-input" disabled={!editable} value={priority} onChange={(e) => setPriority(e.target.value as Priority | '')}>
+						<option value="">Choose…</option>
+						{PRIORITIES.map((p) => <option key={p} value={p}>{CHECK_LABELS.priority[p]}{p === suggestion ? ' (suggested)' : ''}</option>)}
+					</select>
+					<p className="mt-1 text-xs text-ink-600">Meniscus’s four steps: urgent, high, routine, none. Suggested from the overall grade and the hazards.</p>
+				</div>
+				<div className="sm:col-span-2">
+					<label className="field-label" htmlFor="ck-notes">Notes</label>
+					<textarea id="ck-notes" className="field-input min-h-[5rem] py-2" readOnly={!editable} value={notes} onChange={(e) => setNotes(e.target.value)} />
+				</div>
+				{check.nextCheckDue && <p className="text-sm sm:col-span-2">Next check due {check.nextCheckDue} (from the overall grade when last saved).</p>}
+			</section>
+			{message && <p className="notice-error" role="alert">{message}</p>}
+			{editable && (
+				<div className="flex flex-wrap gap-3">
+					<button type="button" className="btn-secondary" disabled={busy} onClick={() => { setMessage(null); save.mutate(); }}>Save draft</button>
+					<button type="button" className="btn-primary" disabled={busy} onClick={() => { setMessage(null); submit.mutate(); }}>Submit for review</button>
+				</div>
+			)}
+			{role === 'reviewer' && check.state === 'in-review' && check.examiner.id !== userId && (
+				<ReviewPanel check={check} pending={busy} onDecide={(decision, comment) => { setMessage(null); decide.mutate({ decision, comment }); }} />
+			)}
+		</div>
+	);
+}
