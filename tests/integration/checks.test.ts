@@ -154,6 +154,12 @@ describe('vocabulary and intervals', () => {
 		expect((await add.json()).terms.fluid).toContain(term);
 		expect((await call('/api/vocabulary/terms', { cookie: admin, json: { part: 'fluid', term } })).status).toBe(409);
 		expect((await call('/api/vocabulary/terms', { cookie: cookies.conservator, json: { part: 'fluid', term: 'x2' } })).status).toBe(403);
+		const code = `T-${process.pid}`;
+		const loc = await call('/api/locations', { cookie: admin, json: { code, name: 'Test bay' } });
+		expect(loc.status).toBe(201);
+		expect((await call('/api/locations', { cookie: admin, json: { code, name: 'Again' } })).status).toBe(409);
+		expect((await call('/api/locations', { cookie: admin, json: { code: '<b>', name: 'x' } })).status).toBe(400);
+		expect((await call('/api/locations', { cookie: cookies.conservator, json: { code: 'X1', name: 'x' } })).status).toBe(403);
 		const iv = await call('/api/settings/intervals', { cookie: admin, method: 'PUT', json: { good: 24, fair: 12, poor: 6, unacceptable: 1 } });
 		expect(iv.status).toBe(200);
 		expect((await call('/api/settings/intervals', { cookie: admin, method: 'PUT', json: { good: 0, fair: 12, poor: 6, unacceptable: 1 } })).status).toBe(400);

@@ -39,7 +39,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/specimens/import/commit': { POST: CONSERVATOR },
 	'/api/specimens/[id]': { GET: 'signed-in', PUT: CONSERVATOR },
 	'/api/specimens/[id]/history': { GET: 'signed-in' },
-	'/api/locations': { GET: 'signed-in' },
+	'/api/locations': { GET: 'signed-in', POST: ADMIN },
 	// Condition checks. Conservators open, edit and submit; reviewers approve or return (the workflow
 	// in src/lib/check/workflow.ts decides each transition); everybody signed in reads.
 	'/checks/[id]': { GET: 'signed-in' },
@@ -62,6 +62,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	// Administration.
 	'/admin/users': { GET: ADMIN },
 	'/admin/mailbox': { GET: ADMIN },
+	'/admin/lists': { GET: ADMIN },
 	'/api/users': { GET: ADMIN, POST: ADMIN },
 	'/api/users/[id]': { PATCH: ADMIN },
 	'/api/users/[id]/invitation': { POST: ADMIN },

@@ -12,6 +12,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
 	{ href: '/specimens', label: 'Register', roles: 'all' },
 	{ href: '/fluid', label: 'Fluid tools', roles: 'all' },
 	{ href: '/admin/users', label: 'Users', roles: ['admin'] },
+	{ href: '/admin/lists', label: 'Lists', roles: ['admin'] },
 	{ href: '/admin/mailbox', label: 'Mailbox', roles: ['admin'] },
 ];
 
