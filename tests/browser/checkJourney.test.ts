@@ -66,3 +66,34 @@ describe('a condition check from opening to approval', () => {
 		await page.close();
 	});
 });
+
+describe('two people saving one draft', () => {
+	it('refuses the stale save, keeps what was typed, and lets the person save over knowingly', async () => {
+		const a = await browser().newPage();
+		await signInAs(a, 'conservator', '/');
+		// The demo data has drafts; open the first of mine in two tabs.
+		const link = a.locator('[data-testid=checks-mine] a').first();
+		await link.waitFor();
+		const href = (await link.getAttribute('href'))!;
+		const b = await browser().newPage();
+		await a.goto(new URL(href, a.url()).toString());
+		await b.goto(new URL(href, a.url()).toString());
+		await a.getByLabel('Notes').waitFor();
+		await b.getByLabel('Notes').waitFor();
+		await a.getByLabel('Notes').fill('Saved first, in tab A.');
+		await a.click('text=Save draft');
+		await expect.poll(() => a.locator('[data-testid=check-trail]').textContent()).toMatch(/saved/);
+		await b.getByLabel('Notes').fill('Typed in tab B, must not be lost.');
+		await b.click('text=Save draft');
+		await b.waitForSelector('[data-testid=check-conflict]');
+		expect(await b.getByLabel('Notes').inputValue()).toBe('Typed in tab B, must not be lost.');
+		await b.click('text=Keep mine, then save again');
+		await b.click('text=Save draft');
+		await expect.poll(async () => {
+			await a.reload();
+			return a.getByLabel('Notes').inputValue();
+		}).toBe('Typed in tab B, must not be lost.');
+		await a.close();
+		await b.close();
+	});
+});

@@ -1,5 +1,5 @@
 import { describe, expect, inject, it } from 'vitest';
-import { screenshotPath, useBrowser } from '../helpers/browser.ts';
+import { islandsReady, screenshotPath, useBrowser } from '../helpers/browser.ts';
 
 /** A conservator uses the Fluid tools page: the strength correction and the top-up. */
 const browser = useBrowser();
@@ -13,6 +13,7 @@ describe('the Fluid tools page', () => {
 		await page.fill('#password', inject('demoPassword'));
 		await Promise.all([page.waitForURL(/\/fluid$/), page.click('button[type=submit]')]);
 		await page.waitForSelector('text=Alcohol meters read true only in ethanol–water');
+		await islandsReady(page);
 
 		const strength = page.locator('[data-testid=strength]');
 		await strength.getByLabel('Meter reading').fill('66');

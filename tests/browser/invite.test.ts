@@ -1,5 +1,5 @@
 import { describe, expect, inject, it } from 'vitest';
-import { screenshotPath, useBrowser } from '../helpers/browser.ts';
+import { islandsReady, screenshotPath, useBrowser } from '../helpers/browser.ts';
 
 /**
  * An administrator invites a person on the Users page; the invitation shows in the development
@@ -17,6 +17,7 @@ describe('inviting a person', () => {
 		await page.fill('#email', 'admin@example.org');
 		await page.fill('#password', inject('demoPassword'));
 		await Promise.all([page.waitForURL(/\/admin\/users$/), page.click('button[type=submit]')]);
+		await islandsReady(page);
 
 		// A mistake first: the form says what is wrong before anything is sent.
 		await page.fill('#invite-name', 'Wren Halloway');

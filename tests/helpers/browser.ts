@@ -66,4 +66,13 @@ export async function signInAs(page: Page, who: string, next: string): Promise<v
 	await page.fill('#email', who.includes('@') ? who : `${who}@example.org`);
 	await page.fill('#password', inject('demoPassword'));
 	await Promise.all([page.waitForURL((u) => u.pathname === next.split('?')[0]), page.click('button[type=submit]')]);
+	await islandsReady(page);
+}
+
+/**
+ * Waits until every island on the page has hydrated (Astro drops the `ssr` attribute then). Typing
+ * into a server-rendered input before that is lost when React takes the input over.
+ */
+export async function islandsReady(page: Page): Promise<void> {
+	await page.waitForFunction(() => !document.querySelector('astro-island[ssr]'));
 }

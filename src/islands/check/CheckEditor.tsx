@@ -11,6 +11,7 @@ import { PartsGrid, type PartsValue } from './PartsGrid.tsx';
 import { FluidFields, emptyFluid, type FluidValue } from './FluidFields.tsx';
 import { ReviewPanel } from './ReviewPanel.tsx';
 import { GradeBadge } from './GradeBadge.tsx';
+import { CheckTrail } from './CheckTrail.tsx';
 
 /**
  * One condition check: graded part by part, with the fluid readings and the overall grade and
@@ -55,6 +56,10 @@ function Editor({ check, terms, role, userId }: { check: CheckView; terms: Recor
 	const [priority, setPriority] = useState<Priority | ''>(check.priority ?? '');
 	const [override, setOverride] = useState<{ grade: Grade | ''; reason: string }>({ grade: check.overallOverrideReason ? (check.overallGrade ?? '') : '', reason: check.overallOverrideReason ?? '' });
 	const [message, setMessage] = useState<string | null>(null);
+	// The version this form's save is based on; moved forward only when the person chooses to save
+	// over someone else's newer save (the 409 answer carries it).
+	const [baseVersion, setBaseVersion] = useState(check.version);
+	const [conflict, setConflict] = useState<CheckView | null>(null);
 	const worst = worstGrade(PARTS.map((p) => parts[p].grade));
 	const toxic = check.specimen.hazards.some((h) => h.flag !== 'flammable-spirit');
 	const suggestion = suggestedPriority(override.grade || worst, toxic);
@@ -69,11 +74,15 @@ function Editor({ check, terms, role, userId }: { check: CheckView; terms: Recor
 		fluid,
 	});
 	const refresh = (c: CheckView) => qc.setQueryData(['check', c.id], { check: c });
-	const onError = (e: ApiError) => setMessage([e.message, ...e.fields.map((f) => `${f.path}: ${f.message}`)].join(' '));
-	const save = useMutation<One, ApiError, void>({ mutationFn: () => api<One>(`/api/checks/${check.id}`, { method: 'PUT', body: { version: check.version, check: body() } }), onSuccess: (r) => refresh(r.check), onError });
+	const onError = (e: ApiError) => {
+		const current = (e.body as { current?: CheckView } | null)?.current;
+		if (e.status === 409 && current) setConflict(current);
+		setMessage([e.message, ...e.fields.map((f) => `${f.path}: ${f.message}`)].join(' '));
+	};
+	const save = useMutation<One, ApiError, void>({ mutationFn: () => api<One>(`/api/checks/${check.id}`, { method: 'PUT', body: { version: baseVersion, check: body() } }), onSuccess: (r) => refresh(r.check), onError });
 	const submit = useMutation<One, ApiError, void>({
 		mutationFn: async () => {
-			const saved = await api<One>(`/api/checks/${check.id}`, { method: 'PUT', body: { version: check.version, check: body() } });
+			const saved = await api<One>(`/api/checks/${check.id}`, { method: 'PUT', body: { version: baseVersion, check: body() } });
 			return api<One>(`/api/checks/${check.id}/submit`, { method: 'POST', body: { version: saved.check.version } });
 		},
 		onSuccess: (r) => refresh(r.check),
@@ -160,6 +169,19 @@ function Editor({ check, terms, role, userId }: { check: CheckView; terms: Recor
 				{check.nextCheckDue && <p className="text-sm sm:col-span-2">Next check due {check.nextCheckDue} (from the overall grade when last saved).</p>}
 			</section>
 			{message && <p className="notice-error" role="alert">{message}</p>}
+			{conflict && editable && (
+				<div className="notice-caution space-y-2" data-testid="check-conflict">
+					<p>
+						Saved meanwhile by someone else: overall {conflict.overallGrade ? CHECK_LABELS.grade[conflict.overallGrade] : 'not graded'}
+						{PARTS.filter((p) => conflict.parts[p].grade !== parts[p].grade).map((p) => `; ${CHECK_LABELS.part[p]} ${conflict.parts[p].grade ?? 'not graded'}`).join('')}.
+						Your entries are still in the form.
+					</p>
+					<div className="flex flex-wrap gap-2">
+						<button type="button" className="btn-primary" onClick={() => { setBaseVersion(conflict.version); setConflict(null); setMessage(null); }}>Keep mine, then save again</button>
+						<button type="button" className="btn-secondary" onClick={() => window.location.reload()}>Discard mine, load theirs</button>
+					</div>
+				</div>
+			)}
 			{editable && (
 				<div className="flex flex-wrap gap-3">
 					<button type="button" className="btn-secondary" disabled={busy} onClick={() => { setMessage(null); save.mutate(); }}>Save draft</button>
@@ -169,6 +191,7 @@ function Editor({ check, terms, role, userId }: { check: CheckView; terms: Recor
 			{role === 'reviewer' && check.state === 'in-review' && check.examiner.id !== userId && (
 				<ReviewPanel check={check} pending={busy} onDecide={(decision, comment) => { setMessage(null); decide.mutate({ decision, comment }); }} />
 			)}
+			<CheckTrail id={check.id} version={check.version} />
 		</div>
 	);
 }

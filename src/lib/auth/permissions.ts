@@ -47,6 +47,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/checks': { GET: ['conservator', 'reviewer'] },
 	'/api/checks/[id]': { GET: 'signed-in', PUT: CONSERVATOR },
 	'/api/checks/[id]/submit': { POST: CONSERVATOR },
+	'/api/checks/[id]/history': { GET: 'signed-in' },
 	'/api/checks/[id]/review': { POST: ['reviewer'] },
 	'/api/vocabulary/terms': { GET: 'signed-in', POST: ADMIN },
 	'/api/settings/intervals': { GET: 'signed-in', PUT: ADMIN },
