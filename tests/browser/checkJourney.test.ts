@@ -33,6 +33,11 @@ describe('a condition check from opening to approval', () => {
 		await page.getByLabel('Sample temperature').fill('25');
 		await expect.poll(() => page.textContent('[data-testid=real-strength]')).toMatch(/Real strength: 68\.4 % vol/);
 		await page.getByLabel('Treatment priority').selectOption('high');
+		// A pH of 15 is refused beside its field, before anything is sent.
+		await page.getByLabel('pH', { exact: true }).fill('15');
+		await page.click('text=Save draft');
+		await expect.poll(() => page.locator('#fl-pH').locator('xpath=../..').textContent()).toMatch(/pH is between 0 and 14/);
+		await page.getByLabel('pH', { exact: true }).fill('');
 		await page.click('text=Submit for review');
 		await expect.poll(() => page.textContent('[data-testid=check-header]')).toMatch(/In review/);
 		await page.screenshot({ path: screenshotPath('check-submitted'), fullPage: true });

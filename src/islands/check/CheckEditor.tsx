@@ -1,9 +1,10 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
+import { Controller, useForm, type Path } from 'react-hook-form';
 import { QueryRoot } from '../QueryRoot.tsx';
 import { api, ApiError } from '../../lib/client/api.ts';
 import type { CheckView } from '../../lib/check/view.ts';
-import type { CheckBodyInput } from '../../lib/check/schema.ts';
+import { CheckBodySchema, type CheckBodyInput } from '../../lib/check/schema.ts';
 import { CHECK_LABELS, PARTS, PRIORITIES, REASONS, type Grade, type Part, type Priority } from '../../lib/check/vocabulary.ts';
 import { suggestedPriority, worstGrade } from '../../lib/check/grading.ts';
 import { LABELS } from '../../lib/specimen/vocabulary.ts';
@@ -45,44 +46,71 @@ function Loader(props: { id: string; role: string; userId: string }) {
 	return <Editor key={check.data.check.version} check={check.data.check} terms={terms.data.terms} {...props} />;
 }
 
+interface FormValues {
+	checkedOn: string;
+	reason: CheckView['reason'];
+	parts: PartsValue;
+	fluid: FluidValue;
+	notes: string;
+	priority: Priority | '';
+	override: { grade: Grade | ''; reason: string };
+}
+
+/** The form's values as the shared schema (and the API) expect them. */
+function toBody(v: FormValues): CheckBodyInput {
+	return {
+		checkedOn: v.checkedOn,
+		reason: v.reason,
+		parts: v.parts,
+		overallOverride: v.override.grade ? { grade: v.override.grade, reason: v.override.reason } : null,
+		priority: v.priority || null,
+		notes: v.notes,
+		fluid: v.fluid,
+	};
+}
+
+/** Where a schema or server path (“check.fluid.pH”, “overallOverride.reason”) shows in the form. */
+function formPath(path: string): Path<FormValues> {
+	return path.replace(/^check\./, '').replace(/^overallOverride/, 'override') as Path<FormValues>;
+}
+
 function Editor({ check, terms, role, userId }: { check: CheckView; terms: Record<Part, string[]>; role: string; userId: string }) {
 	const qc = useQueryClient();
 	const editable = role === 'conservator' && (check.state === 'draft' || check.state === 'returned');
-	const [checkedOn, setCheckedOn] = useState(check.checkedOn);
-	const [reason, setReason] = useState(check.reason);
-	const [parts, setParts] = useState<PartsValue>(check.parts);
-	const [fluid, setFluid] = useState<FluidValue>(() => fluidOf(check));
-	const [notes, setNotes] = useState(check.notes);
-	const [priority, setPriority] = useState<Priority | ''>(check.priority ?? '');
-	const [override, setOverride] = useState<{ grade: Grade | ''; reason: string }>({ grade: check.overallOverrideReason ? (check.overallGrade ?? '') : '', reason: check.overallOverrideReason ?? '' });
+	const { control, register, handleSubmit, watch, setError, formState } = useForm<FormValues>({
+		defaultValues: {
+			checkedOn: check.checkedOn,
+			reason: check.reason,
+			parts: check.parts,
+			fluid: fluidOf(check),
+			notes: check.notes,
+			priority: check.priority ?? '',
+			override: { grade: check.overallOverrideReason ? (check.overallGrade ?? '') : '', reason: check.overallOverrideReason ?? '' },
+		},
+	});
+	const errors = formState.errors;
 	const [message, setMessage] = useState<string | null>(null);
 	// The version this form's save is based on; moved forward only when the person chooses to save
 	// over someone else's newer save (the 409 answer carries it).
 	const [baseVersion, setBaseVersion] = useState(check.version);
 	const [conflict, setConflict] = useState<CheckView | null>(null);
+	const parts = watch('parts');
+	const override = watch('override');
 	const worst = worstGrade(PARTS.map((p) => parts[p].grade));
 	const toxic = check.specimen.hazards.some((h) => h.flag !== 'flammable-spirit');
 	const suggestion = suggestedPriority(override.grade || worst, toxic);
 
-	const body = (): CheckBodyInput => ({
-		checkedOn,
-		reason,
-		parts,
-		overallOverride: override.grade ? { grade: override.grade, reason: override.reason } : null,
-		priority: priority || null,
-		notes,
-		fluid,
-	});
 	const refresh = (c: CheckView) => qc.setQueryData(['check', c.id], { check: c });
 	const onError = (e: ApiError) => {
 		const current = (e.body as { current?: CheckView } | null)?.current;
 		if (e.status === 409 && current) setConflict(current);
-		setMessage([e.message, ...e.fields.map((f) => `${f.path}: ${f.message}`)].join(' '));
+		for (const f of e.fields) setError(formPath(f.path), { message: f.message });
+		setMessage(e.message);
 	};
-	const save = useMutation<One, ApiError, void>({ mutationFn: () => api<One>(`/api/checks/${check.id}`, { method: 'PUT', body: { version: baseVersion, check: body() } }), onSuccess: (r) => refresh(r.check), onError });
-	const submit = useMutation<One, ApiError, void>({
-		mutationFn: async () => {
-			const saved = await api<One>(`/api/checks/${check.id}`, { method: 'PUT', body: { version: baseVersion, check: body() } });
+	const save = useMutation<One, ApiError, FormValues>({ mutationFn: (v) => api<One>(`/api/checks/${check.id}`, { method: 'PUT', body: { version: baseVersion, check: toBody(v) } }), onSuccess: (r) => refresh(r.check), onError });
+	const submit = useMutation<One, ApiError, FormValues>({
+		mutationFn: async (v) => {
+			const saved = await api<One>(`/api/checks/${check.id}`, { method: 'PUT', body: { version: baseVersion, check: toBody(v) } });
 			return api<One>(`/api/checks/${check.id}/submit`, { method: 'POST', body: { version: saved.check.version } });
 		},
 		onSuccess: (r) => refresh(r.check),
@@ -94,6 +122,19 @@ function Editor({ check, terms, role, userId }: { check: CheckView; terms: Recor
 		onError,
 	});
 	const busy = save.isPending || submit.isPending || decide.isPending;
+	/** Checks with the shared schema first, so most mistakes show beside their field at once. */
+	const run = (m: typeof save) =>
+		handleSubmit((v) => {
+			setMessage(null);
+			const parsed = CheckBodySchema.safeParse(toBody(v));
+			if (!parsed.success) {
+				for (const i of parsed.error.issues) setError(formPath(i.path.join('.')), { message: i.message });
+				setMessage('Some entries need attention; see the fields marked below.');
+				return;
+			}
+			m.mutate(v);
+		});
+	const err = (path: string) => path.split('.').reduce<unknown>((o, k) => (o as Record<string, unknown> | undefined)?.[k], errors) as { message?: string } | undefined;
 
 	return (
 		<div className="space-y-6">
@@ -124,11 +165,12 @@ function Editor({ check, terms, role, userId }: { check: CheckView; terms: Recor
 			<section className="card grid gap-4 sm:grid-cols-2">
 				<div>
 					<label className="field-label" htmlFor="ck-date">Date of the check</label>
-					<input id="ck-date" type="date" className="field-input" value={checkedOn} readOnly={!editable} onChange={(e) => setCheckedOn(e.target.value)} />
+					<input id="ck-date" type="date" className="field-input" readOnly={!editable} aria-invalid={err('checkedOn') ? true : undefined} {...register('checkedOn')} />
+					<FieldError error={err('checkedOn')} />
 				</div>
 				<div>
 					<label className="field-label" htmlFor="ck-reason">Reason</label>
-					<select id="ck-reason" className="field-input" value={reason} disabled={!editable} onChange={(e) => setReason(e.target.value as typeof reason)}>
+					<select id="ck-reason" className="field-input" disabled={!editable} {...register('reason')}>
 						{REASONS.map((r) => <option key={r} value={r}>{CHECK_LABELS.reason[r]}</option>)}
 					</select>
 				</div>
@@ -136,27 +178,28 @@ function Editor({ check, terms, role, userId }: { check: CheckView; terms: Recor
 			<section className="card" aria-labelledby="parts-h">
 				<h2 id="parts-h" className="text-xl font-semibold">Part by part</h2>
 				<p className="mt-1 text-sm text-ink-700">Good: sound. Fair: minor, mainly aesthetic. Poor: unstable or large losses. Unacceptable: actively deteriorating or a danger to other objects. Qualify each grade with what you see.</p>
-				<PartsGrid value={parts} onChange={setParts} terms={terms} readOnly={!editable} />
+				<Controller control={control} name="parts" render={({ field }) => <PartsGrid value={field.value} onChange={field.onChange} terms={terms} readOnly={!editable} errors={err('parts') as never} />} />
 			</section>
 			<section className="card" aria-labelledby="fluid-h">
 				<h2 id="fluid-h" className="mb-3 text-xl font-semibold">Fluid</h2>
-				<FluidFields value={fluid} onChange={setFluid} readOnly={!editable} />
+				<Controller control={control} name="fluid" render={({ field }) => <FluidFields value={field.value} onChange={field.onChange} readOnly={!editable} errors={err('fluid') as never} />} />
 			</section>
 			<section className="card grid gap-4 sm:grid-cols-2" aria-labelledby="outcome-h">
 				<h2 id="outcome-h" className="text-xl font-semibold sm:col-span-2">Outcome</h2>
 				<div>
 					<label className="field-label" htmlFor="ck-override">Overall condition</label>
-					<select id="ck-override" className="field-input" disabled={!editable} value={override.grade} onChange={(e) => setOverride({ ...override, grade: e.target.value as Grade | '' })}>
+					<select id="ck-override" className="field-input" disabled={!editable} {...register('override.grade')}>
 						<option value="">The worst part’s grade{worst ? ` (${CHECK_LABELS.grade[worst]})` : ''}</option>
 						{(['good', 'fair', 'poor', 'unacceptable'] as const).filter((g) => g !== worst).map((g) => <option key={g} value={g}>{CHECK_LABELS.grade[g]} (say why)</option>)}
 					</select>
 					{override.grade && (
-						<textarea aria-label="Why the overall grade differs from the worst part" className="field-input mt-2 min-h-[4rem] py-2" readOnly={!editable} placeholder="Why the overall grade differs from the worst part" value={override.reason} onChange={(e) => setOverride({ ...override, reason: e.target.value })} />
+						<textarea aria-label="Why the overall grade differs from the worst part" className="field-input mt-2 min-h-[4rem] py-2" readOnly={!editable} placeholder="Why the overall grade differs from the worst part" {...register('override.reason')} />
 					)}
+					<FieldError error={err('override.reason') ?? err('override')} />
 				</div>
 				<div>
 					<label className="field-label" htmlFor="ck-priority">Treatment priority</label>
-					<select id="ck-priority" className="field-input" disabled={!editable} value={priority} onChange={(e) => setPriority(e.target.value as Priority | '')}>
+					<select id="ck-priority" className="field-input" disabled={!editable} {...register('priority')}>
 						<option value="">Choose…</option>
 						{PRIORITIES.map((p) => <option key={p} value={p}>{CHECK_LABELS.priority[p]}{p === suggestion ? ' (suggested)' : ''}</option>)}
 					</select>
@@ -164,7 +207,8 @@ function Editor({ check, terms, role, userId }: { check: CheckView; terms: Recor
 				</div>
 				<div className="sm:col-span-2">
 					<label className="field-label" htmlFor="ck-notes">Notes</label>
-					<textarea id="ck-notes" className="field-input min-h-[5rem] py-2" readOnly={!editable} value={notes} onChange={(e) => setNotes(e.target.value)} />
+					<textarea id="ck-notes" className="field-input min-h-[5rem] py-2" readOnly={!editable} {...register('notes')} />
+					<FieldError error={err('notes')} />
 				</div>
 				{check.nextCheckDue && <p className="text-sm sm:col-span-2">Next check due {check.nextCheckDue} (from the overall grade when last saved).</p>}
 			</section>
@@ -184,8 +228,8 @@ function Editor({ check, terms, role, userId }: { check: CheckView; terms: Recor
 			)}
 			{editable && (
 				<div className="flex flex-wrap gap-3">
-					<button type="button" className="btn-secondary" disabled={busy} onClick={() => { setMessage(null); save.mutate(); }}>Save draft</button>
-					<button type="button" className="btn-primary" disabled={busy} onClick={() => { setMessage(null); submit.mutate(); }}>Submit for review</button>
+					<button type="button" className="btn-secondary" disabled={busy} onClick={run(save)}>Save draft</button>
+					<button type="button" className="btn-primary" disabled={busy} onClick={run(submit)}>Submit for review</button>
 				</div>
 			)}
 			{role === 'reviewer' && check.state === 'in-review' && check.examiner.id !== userId && (
@@ -194,4 +238,8 @@ function Editor({ check, terms, role, userId }: { check: CheckView; terms: Recor
 			<CheckTrail id={check.id} version={check.version} />
 		</div>
 	);
+}
+
+function FieldError({ error }: { error?: { message?: string } }) {
+	return error?.message ? <p className="field-error" role="alert">{error.message}</p> : null;
 }

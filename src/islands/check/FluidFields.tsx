@@ -22,7 +22,9 @@ function realStrength(f: FluidValue): { value: number | null; problem: string | 
 	}
 }
 
-export function FluidFields({ value, onChange, readOnly }: { value: FluidValue; onChange: (v: FluidValue) => void; readOnly: boolean }) {
+type FluidErrors = Partial<Record<keyof FluidValue, { message?: string }>>;
+
+export function FluidFields({ value, onChange, readOnly, errors }: { value: FluidValue; onChange: (v: FluidValue) => void; readOnly: boolean; errors?: FluidErrors }) {
 	const set = (change: Partial<FluidValue>) => onChange({ ...value, ...change });
 	// The text as typed ("68." on the way to "68.5"), beside the number it stands for.
 	const [raw, setRaw] = useState(() => ({ readingPercentVol: str(value.readingPercentVol), tempC: str(value.tempC), pH: str(value.pH), levelMm: str(value.levelMm) }));
@@ -44,6 +46,7 @@ export function FluidFields({ value, onChange, readOnly }: { value: FluidValue; 
 				/>
 				<span className="flex min-w-touch items-center justify-center whitespace-nowrap rounded-r-md border border-l-0 border-ink-300 bg-ink-50 px-3 text-sm">{unit}</span>
 			</div>
+			{errors?.[key]?.message && <p className="field-error" role="alert">{errors[key]!.message}</p>}
 		</div>
 	);
 	return (

@@ -4,7 +4,10 @@ import { GRADE_STYLE } from './GradeBadge.tsx';
 /** One row per part: a grade (four buttons, words always shown), damage terms and a note. */
 export type PartsValue = Record<Part, { grade: Grade | null; terms: string[]; note: string }>;
 
-export function PartsGrid(props: { value: PartsValue; onChange: (v: PartsValue) => void; terms: Record<Part, string[]>; readOnly: boolean }) {
+type Msg = { message?: string } | undefined;
+export type PartErrors = Partial<Record<Part, { grade?: Msg; terms?: Msg; note?: Msg }>>;
+
+export function PartsGrid(props: { value: PartsValue; onChange: (v: PartsValue) => void; terms: Record<Part, string[]>; readOnly: boolean; errors?: PartErrors }) {
 	const set = (part: Part, change: Partial<PartsValue[Part]>) => props.onChange({ ...props.value, [part]: { ...props.value[part], ...change } });
 	return (
 		<div className="divide-y divide-ink-100">
@@ -58,7 +61,11 @@ export function PartsGrid(props: { value: PartsValue; onChange: (v: PartsValue) 
 								value={v.note}
 								readOnly={props.readOnly}
 								onChange={(e) => set(part, { note: e.target.value })}
+								aria-invalid={props.errors?.[part]?.note ? true : undefined}
 							/>
+							{[props.errors?.[part]?.grade, props.errors?.[part]?.terms, props.errors?.[part]?.note].map((m, i) =>
+								m?.message ? <p key={i} className="field-error" role="alert">{m.message}</p> : null,
+							)}
 						</div>
 					</fieldset>
 				);
