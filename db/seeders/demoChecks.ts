@@ -266,6 +266,18 @@ export async function seedDemoChecks(sequelize: Sequelize, transaction: Transact
 		rows.push(...h.rows);
 	}
 	if (rows.length) await sequelize.getQueryInterface().bulkInsert('condition_checks', rows, { transaction });
+	// The trail each demo check would have left had it been made in the app.
+	await sequelize.query(
+		`INSERT INTO audit_events (occurred_at, actor_id, action, entity_type, entity_id, after)
+		 SELECT checked_on + time '09:30', examiner_id, 'check.open', 'check', id::text, jsonb_build_object('specimenId', specimen_id) FROM condition_checks
+		 UNION ALL
+		 SELECT submitted_at, examiner_id, 'check.submit', 'check', id::text, jsonb_build_object('state', 'in-review') FROM condition_checks WHERE submitted_at IS NOT NULL
+		 UNION ALL
+		 SELECT reviewed_at, reviewer_id, CASE state WHEN 'approved' THEN 'check.approve' ELSE 'check.return' END, 'check', id::text,
+		        jsonb_build_object('state', state, 'comment', coalesce(review_comment, ''))
+		 FROM condition_checks WHERE state IN ('approved', 'returned')`,
+		{ transaction },
+	);
 	await sequelize.query(
 		`UPDATE specimens s SET current_grade = c.overall_grade, current_priority = c.priority, last_checked_on = c.checked_on, next_check_due = c.next_check_due
 		 FROM (SELECT DISTINCT ON (specimen_id) specimen_id, overall_grade, priority, checked_on, next_check_due

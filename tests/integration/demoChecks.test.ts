@@ -122,3 +122,14 @@ describe('the demo condition checks', () => {
 		}
 	});
 });
+
+describe('the demo checks’ trail', () => {
+	it('has an opening event for every demo check and an approval for every approved one', async () => {
+		const { AuditEvent, ConditionCheck } = await import('../../src/lib/server/models/index.ts');
+		const approved = await ConditionCheck.findAll({ where: { state: 'approved' }, limit: 20 });
+		for (const c of approved) {
+			const actions = (await AuditEvent.findAll({ where: { entityType: 'check', entityId: c.id } })).map((e) => e.action).sort();
+			expect(actions).toEqual(expect.arrayContaining(['check.approve', 'check.open', 'check.submit']));
+		}
+	});
+});

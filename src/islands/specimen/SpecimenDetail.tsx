@@ -83,7 +83,7 @@ function Detail({ id, canEdit }: { id: string; canEdit: boolean }) {
 									</p>
 									{e.changes.length > 0 && (
 										<ul className="mt-1 text-ink-700">
-											{e.changes.map((c) => (
+											{e.changes.filter((c) => c.field !== 'check').map((c) => (
 												<li key={c.field}>
 													{FIELD_LABELS[c.field] ?? c.field}: {showValue(c.before)} → {showValue(c.after)}
 												</li>
@@ -105,6 +105,7 @@ const ACTIONS: Record<string, string> = {
 	'specimen.update': 'edited the record',
 	'specimen.import-create': 'registered it by spreadsheet import',
 	'specimen.import-update': 'updated it by spreadsheet import',
+	'specimen.condition': 'approved a condition check, which set the current condition',
 };
 
 function Row({ term, value }: { term: string; value: string }) {

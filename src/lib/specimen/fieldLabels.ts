@@ -16,6 +16,9 @@ export const FIELD_LABELS: Record<string, string> = {
 	sealType: 'Seal',
 	hazards: 'Hazards',
 	nextCheckDue: 'Next check due',
+	currentGrade: 'Condition',
+	currentPriority: 'Priority',
+	lastCheckedOn: 'Last approved check',
 };
 
 /** A stored value as a person reads it: a location by its code, hazards by flag, empty as a dash. */
