@@ -57,11 +57,18 @@ export async function registerPage(q: RegisterQuery): Promise<RegisterPage> {
 	return { rows: rows.map(specimenView), total: count, page: q.page, pageSize: q.pageSize };
 }
 
-/** Every row of a filtered view, for export (in pages, so memory stays bounded). */
+/** Every row of a filtered view, for export (in pages, so memory stays bounded; no count per page). */
 export async function* registerAll(q: RegisterQuery): AsyncGenerator<ReturnType<typeof specimenView>> {
-	for (let page = 1; ; page++) {
-		const p = await registerPage({ ...q, page, pageSize: 200 });
-		yield* p.rows;
-		if (page * 200 >= p.total) return;
+	const size = 500;
+	for (let page = 0; ; page++) {
+		const rows = await Specimen.findAll({
+			where: registerWhere(q),
+			include: [{ model: StorageLocation, as: 'location' }],
+			order: ORDER[q.sort](q.dir === 'desc' ? 'DESC' : 'ASC'),
+			limit: size,
+			offset: page * size,
+		});
+		yield* rows.map(specimenView);
+		if (rows.length < size) return;
 	}
 }
