@@ -108,7 +108,9 @@ function Collection({ c }: { c: NonNullable<HomeSummary['collection']> }) {
 						<tbody>
 							{c.mostOverdue.map((s) => (
 								<tr key={s.id} className="border-t border-ink-100">
-									<td className="py-2 pr-4 font-mono">{s.objectNumber}</td>
+									<td className="py-2 pr-4 font-mono">
+										<a className="text-glass-700 underline" href={`/specimens/${s.id}`}>{s.objectNumber}</a>
+									</td>
 									<td className="py-2 pr-4">{s.title}</td>
 									<td className="py-2 pr-4">{s.location ?? '—'}</td>
 									<td className="py-2">{s.nextCheckDue}</td>
