@@ -6,12 +6,12 @@ import { startOutboxWorker } from './lib/server/mail/outbox.ts';
 import { audit } from './lib/server/audit.ts';
 import { db } from './lib/server/db.ts';
 import { forbiddenPage } from './lib/server/pages.ts';
+import { setAuthCookie } from './lib/server/cookies.ts';
 
-/**
- * Every request: security headers, the same-origin rule for changes, then who is asking and whether
- * the route's rule (src/lib/auth/permissions.ts) lets them. Deny by default: a route without a rule
- * is refused for everybody.
- */
+// Every request: security headers, the same-origin rule for changes, then who is asking and whether
+// the route's rule (src/lib/auth/permissions.ts) lets them. Deny by default: a route without a rule
+// is refused for everybody.
+
 /** Binds the models to the connection and starts the mail sender, once per process. */
 const init = defineMiddleware((_ctx, next) => {
 	db();
@@ -42,10 +42,7 @@ const access = defineMiddleware(async (ctx, next) => {
 	const check = await checkSession(sessionId);
 	ctx.locals.user = check.user;
 	ctx.locals.sessionId = check.user ? check.sessionId : null;
-	if (sessionId && !check.user) {
-		const blank = blankCookie();
-		ctx.cookies.set(blank.name, blank.value, blank.attributes);
-	}
+	if (sessionId && !check.user) setAuthCookie(ctx.cookies, blankCookie());
 	const decision = decide(ctx.routePattern, ctx.request.method, check.user);
 	if (decision.kind === 'allow') return next();
 	const api = isApi(ctx.url.pathname);

@@ -93,11 +93,6 @@ export function decide(
 	return { kind: 'forbidden', reason: 'role' };
 }
 
-/** True when the route is public for this method (used to skip session work on sign-in pages). */
-export function isPublic(routePattern: string | undefined, method: string): boolean {
-	return decide(routePattern, method, null).kind === 'allow';
-}
-
 /**
  * Where to send someone after sign-in. Only a path on this site is accepted (`/x`, never `//x`
  * or `https://…`), so `?next=` cannot be used to bounce a user to another site.
