@@ -1,6 +1,7 @@
 // `npm start`: everything from a fresh clone to a running app with demo data. Dependencies,
 // PostgreSQL (from Debian when missing), the project's own cluster, migrations, the demo collection,
-// a build when the sources changed, the local fake mail server, then the app on 127.0.0.1:4321.
+// a build when the sources changed, the local fake mail server, then the app on 127.0.0.1:4321 and
+// the photo worker.
 // Ctrl-C stops the app, the mail fake and the database. Builtins only until npm ci has run.
 import fs from 'node:fs';
 import path from 'node:path';
@@ -63,6 +64,10 @@ try {
 	}
 	const app = startService('app', process.execPath, ['dist/server/entry.mjs'], { cwd: root, env });
 	children.push(app);
+	// Photos are checked and prepared by a worker process of their own (scripts/worker.ts).
+	const worker = startService('worker', tsx, ['scripts/worker.ts'], { cwd: root, env });
+	children.push(worker);
+	worker.exited.then(({ code }) => !stopping && (console.error(`[meniscus] The photo worker stopped (code ${code}).`), shutdown(1)));
 	app.exited.then(({ code }) => !stopping && (console.error(`[meniscus] The app stopped (code ${code}).`), shutdown(1)));
 	await waitForHttp(`http://${host}:${port}/login`, { child: app });
 	const pw = demoPassword();

@@ -1,5 +1,6 @@
 import * as foundation from './20261201000000-foundation.ts';
 import * as checks from './20261202000000-condition-checks.ts';
+import * as photographs from './20261203000000-photographs.ts';
 
 /**
  * Every migration, in order. Listed by static import rather than found by a file glob, so that
@@ -9,4 +10,5 @@ import * as checks from './20261202000000-condition-checks.ts';
 export const MIGRATIONS = [
 	{ name: '20261201000000-foundation.ts', ...foundation },
 	{ name: '20261202000000-condition-checks.ts', ...checks },
+	{ name: '20261203000000-photographs.ts', ...photographs },
 ];

@@ -33,7 +33,7 @@ function describe(full: string): RouteFile {
 	if (full.endsWith('.astro')) {
 		methods = ['GET', ...(/Astro\.request\.method\s*===\s*'POST'/.test(src) ? ['POST'] : [])];
 	} else {
-		methods = [...src.matchAll(/export\s+(?:const|async\s+function|function)\s+(GET|POST|PUT|PATCH|DELETE|OPTIONS|ALL)\b/g)].map(
+		methods = [...src.matchAll(/export\s+(?:const|async\s+function|function)\s+(GET|HEAD|POST|PUT|PATCH|DELETE|OPTIONS|ALL)\b/g)].map(
 			(m) => m[1]!,
 		);
 	}

@@ -20,7 +20,7 @@ beforeAll(async () => {
 });
 
 const sample = (pattern: string) =>
-	pattern.replace('[id]', '00000000-0000-4000-8000-000000000000').replace('[token]', 'x'.repeat(43));
+	pattern.replace('[id]', '00000000-0000-4000-8000-000000000000').replace('[token]', 'x'.repeat(43)).replace('[...path]', 'a'.repeat(32));
 
 function expected(access: Access, who: Who): 'allow' | 'sign-in' | 'forbidden' {
 	if (access === 'public') return 'allow';
@@ -37,7 +37,7 @@ describe('the authorisation matrix', () => {
 		const access = ROUTE_RULES[pattern]?.[method as 'GET'];
 		expect(access, `no rule for ${method} ${pattern}`).toBeDefined();
 		const cookie = who === 'signed-out' ? undefined : await cookieFor(users.get(who)!);
-		const res = await call(sample(pattern), { method, cookie, json: method === 'GET' ? undefined : {} });
+		const res = await call(sample(pattern), { method, cookie, json: method === 'GET' || method === 'HEAD' ? undefined : {} });
 		const api = pattern.startsWith('/api/');
 		const want = expected(access!, who);
 		if (want === 'allow') {

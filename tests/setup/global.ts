@@ -23,6 +23,9 @@ declare module 'vitest' {
 		demoPassword: string;
 		clusterDataDir: string;
 		clusterPort: number;
+		uploadsDir: string;
+		/** The environment the app and the worker were started with (for tests that start their own). */
+		serverEnv: Record<string, string>;
 	}
 }
 
@@ -37,8 +40,10 @@ export default async function setup(project: TestProject) {
 	const dataDir = path.join(tmp, 'pg', 'data');
 	const quiet = () => {};
 	let server: ReturnType<typeof startService> | undefined;
+	let worker: ReturnType<typeof startService> | undefined;
 	let smtp: Awaited<ReturnType<typeof startFakeSmtp>> | undefined;
 	const teardown = async () => {
+		await stopService(worker);
 		await stopService(server);
 		await smtp?.close();
 		await removeCluster({ dataDir }).catch(() => {});
@@ -57,19 +62,21 @@ export default async function setup(project: TestProject) {
 		smtp = await startFakeSmtp({ mailboxDir, log: quiet });
 		const port = await freePort();
 		const baseUrl = `http://127.0.0.1:${port}`;
-		server = startService('app', process.execPath, ['dist/server/entry.mjs'], {
-			cwd: root,
-			quiet: !process.env.MENISCUS_TEST_SERVER_LOG,
-			env: {
-				HOST: '127.0.0.1',
-				PORT: String(port),
-				DATABASE_URL: db.url,
-				MENISCUS_PUBLIC_URL: baseUrl,
-				SMTP_HOST: '127.0.0.1',
-				SMTP_PORT: String(smtp.port),
-				MENISCUS_MAILBOX_DIR: mailboxDir,
-			},
-		});
+		const uploadsDir = path.join(tmp, 'uploads');
+		const env = {
+			HOST: '127.0.0.1',
+			PORT: String(port),
+			DATABASE_URL: db.url,
+			MENISCUS_PUBLIC_URL: baseUrl,
+			SMTP_HOST: '127.0.0.1',
+			SMTP_PORT: String(smtp.port),
+			MENISCUS_MAILBOX_DIR: mailboxDir,
+			MENISCUS_UPLOADS_DIR: uploadsDir,
+			MENISCUS_RECONCILE_MINUTES: '0.05',
+		};
+		const quietServer = !process.env.MENISCUS_TEST_SERVER_LOG;
+		server = startService('app', process.execPath, ['dist/server/entry.mjs'], { cwd: root, quiet: quietServer, env });
+		worker = startService('worker', path.join(root, 'node_modules', '.bin', 'tsx'), ['scripts/worker.ts'], { cwd: root, quiet: quietServer, env });
 		await waitForHttp(`${baseUrl}/login`, { child: server });
 
 		project.provide('baseUrl', baseUrl);
@@ -78,6 +85,8 @@ export default async function setup(project: TestProject) {
 		project.provide('demoPassword', TEST_PASSWORD);
 		project.provide('clusterDataDir', dataDir);
 		project.provide('clusterPort', pgPort);
+		project.provide('uploadsDir', uploadsDir);
+		project.provide('serverEnv', env);
 	} catch (err) {
 		await teardown();
 		throw err;

@@ -9,10 +9,13 @@ import type { Role } from './roles.ts';
  */
 export type Access = 'public' | 'signed-in' | readonly Role[];
 export type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE' | 'OPTIONS' | 'HEAD';
-export type RouteRule = Partial<Record<Exclude<Method, 'HEAD'>, Access>>;
+/** HEAD falls back to GET's rule unless a route declares HEAD itself (tus asks for offsets with HEAD only). */
+export type RouteRule = Partial<Record<Method, Access>>;
 
 const ADMIN = ['admin'] as const;
 const CONSERVATOR = ['conservator'] as const;
+const UPLOADER = ['conservator', 'admin'] as const;
+const ORIGINALS = ['conservator', 'reviewer', 'admin'] as const;
 
 export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	// Sign-in, sign-out and password recovery.
@@ -60,6 +63,19 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/fluid/jar': { POST: 'signed-in' },
 	'/api/fluid/airspace': { POST: 'signed-in' },
 	'/api/fluid/trend': { POST: 'signed-in' },
+	// Photographs. Conservators and administrators upload (tus; which record they may add to is
+	// checked per upload); everyone signed in sees photos; masters (GPS, serial numbers) go to fewer.
+	'/api/uploads/[...path]': { HEAD: UPLOADER, POST: UPLOADER, PATCH: UPLOADER, DELETE: UPLOADER },
+	'/api/uploads/status': { GET: UPLOADER },
+	'/api/photos/match': { POST: UPLOADER },
+	'/api/photos/[id]': { GET: 'signed-in' },
+	'/api/photos/[id]/original': { GET: ORIGINALS },
+	'/api/photos/[id]/thumbnail': { GET: 'signed-in' },
+	'/api/photos/[id]/display': { GET: 'signed-in' },
+	'/api/photos/[id]/tiles/[...path]': { GET: 'signed-in' },
+	'/api/specimens/[id]/photos': { GET: 'signed-in' },
+	'/api/checks/[id]/photos': { GET: 'signed-in' },
+	'/photos/[id]': { GET: 'signed-in' },
 	// Administration.
 	'/admin/users': { GET: ADMIN },
 	'/admin/mailbox': { GET: ADMIN },
@@ -84,7 +100,8 @@ export function decide(
 ): Decision {
 	const rule = routePattern === undefined ? undefined : rules[routePattern];
 	if (!rule) return { kind: 'forbidden', reason: 'no-rule' };
-	const m = (method.toUpperCase() === 'HEAD' ? 'GET' : method.toUpperCase()) as keyof RouteRule;
+	const upper = method.toUpperCase();
+	const m = (upper === 'HEAD' && !Object.hasOwn(rule, 'HEAD') ? 'GET' : upper) as keyof RouteRule;
 	const access = Object.hasOwn(rule, m) ? rule[m] : undefined;
 	if (access === undefined) return { kind: 'forbidden', reason: 'method' };
 	if (access === 'public') return { kind: 'allow' };

@@ -1,3 +1,4 @@
+import path from 'node:path';
 import { z } from 'zod';
 
 /**
@@ -19,6 +20,13 @@ const EnvSchema = z.object({
 	MENISCUS_SESSION_IDLE_MINUTES: z.coerce.number().positive().max(24 * 60).default(30),
 	MENISCUS_SESSION_ABSOLUTE_HOURS: z.coerce.number().positive().max(24 * 30).default(12),
 	MENISCUS_TOKEN_HOURS: z.coerce.number().positive().max(24 * 14).default(24),
+	/** Where uploads, master originals and derivatives live; never a folder the web server serves. */
+	MENISCUS_UPLOADS_DIR: z.string().min(1).default('uploads').transform((p) => path.resolve(p)),
+	/** Photos processed at once by one worker process; each uses MENISCUS_SHARP_THREADS threads. */
+	MENISCUS_PHOTO_JOBS: z.coerce.number().int().min(1).max(16).default(1),
+	MENISCUS_SHARP_THREADS: z.coerce.number().int().min(1).max(64).default(1),
+	/** Minutes between reconciler passes in the worker (it also runs when the worker starts). */
+	MENISCUS_RECONCILE_MINUTES: z.coerce.number().positive().max(24 * 60).default(10),
 });
 
 export type Config = z.infer<typeof EnvSchema> & { secureCookies: boolean };

@@ -6,17 +6,21 @@ import { DamageTerm } from './DamageTerm.ts';
 import { GradeInterval } from './GradeInterval.ts';
 import { LoginThrottle } from './LoginThrottle.ts';
 import { OutgoingMail } from './OutgoingMail.ts';
+import { Photo } from './Photo.ts';
+import { PhotoDerivative } from './PhotoDerivative.ts';
+import { PhotoUpload } from './PhotoUpload.ts';
 import { Specimen } from './Specimen.ts';
 import { StorageLocation } from './StorageLocation.ts';
 import { User } from './User.ts';
 import { UserSession } from './UserSession.ts';
 
 export type { TokenPurpose } from './AuthToken.ts';
-export { AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Specimen, StorageLocation, User, UserSession };
+export { AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Photo, PhotoDerivative, PhotoUpload, Specimen, StorageLocation, User, UserSession };
+export type { DerivativeKind } from './PhotoDerivative.ts';
 
 /** Binds every model to one connection and declares the associations. */
 export function initModels(sequelize: Sequelize): void {
-	for (const m of [AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Specimen, StorageLocation, User, UserSession]) {
+	for (const m of [AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Photo, PhotoDerivative, PhotoUpload, Specimen, StorageLocation, User, UserSession]) {
 		m.initModel(sequelize);
 	}
 	Specimen.belongsTo(StorageLocation, { foreignKey: 'storageLocationId', as: 'location' });
@@ -27,4 +31,8 @@ export function initModels(sequelize: Sequelize): void {
 	Specimen.hasMany(ConditionCheck, { foreignKey: 'specimenId', as: 'checks' });
 	ConditionCheck.belongsTo(User, { foreignKey: 'examinerId', as: 'examiner' });
 	ConditionCheck.belongsTo(User, { foreignKey: 'reviewerId', as: 'reviewer' });
+	Photo.belongsTo(User, { foreignKey: 'uploadedBy', as: 'uploader' });
+	Photo.belongsTo(Specimen, { foreignKey: 'specimenId', as: 'specimen' });
+	Photo.belongsTo(ConditionCheck, { foreignKey: 'checkId', as: 'check' });
+	Photo.hasMany(PhotoDerivative, { foreignKey: 'photoId', as: 'derivatives' });
 }

@@ -1,0 +1,54 @@
+// The photo worker: takes ingest jobs from the PostgreSQL queue (pg-boss) and runs the reconciler
+// at start and every few minutes. A process of its own, so that decoding a flood of large photos
+// never holds up the web server, and so that more workers can run on other machines later.
+// Started by `npm start` and by the tests; `npm run worker` runs one by hand.
+import { config } from '../src/lib/server/config.ts';
+import { db, closeDb } from '../src/lib/server/db.ts';
+import { INGEST_QUEUE, queue, stopQueue, type IngestJob } from '../src/lib/server/photos/queue.ts';
+import { ingestUpload } from '../src/lib/server/photos/ingest.ts';
+import { reconcile } from '../src/lib/server/photos/reconcile.ts';
+import { configureSharp } from '../src/lib/server/photos/pipeline.ts';
+import { ensureDirs } from '../src/lib/server/photos/storage.ts';
+
+const log = (m: string) => console.log(`${new Date().toISOString()} ${m}`);
+const cfg = config();
+configureSharp(cfg.MENISCUS_SHARP_THREADS);
+ensureDirs();
+db();
+const boss = await queue('worker');
+
+for (let i = 0; i < cfg.MENISCUS_PHOTO_JOBS; i++) {
+	await boss.work<IngestJob>(INGEST_QUEUE, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
+		if (!job) return;
+		const started = Date.now();
+		const outcome = await ingestUpload(job.data.uploadId);
+		log(`${job.data.uploadId}: ${outcome.state}${'reason' in outcome ? ` (${outcome.code}: ${outcome.reason})` : ''}${'why' in outcome ? ` (${outcome.why})` : ''} in ${Date.now() - started} ms`);
+	});
+}
+
+let running = false;
+async function pass() {
+	if (running) return;
+	running = true;
+	try {
+		const r = await reconcile();
+		const n = r.queued.length + r.recovered.length + r.cleaned.length + r.expired.length;
+		if (n > 0 || r.unreadable.length > 0) log(`reconciler: queued ${r.queued.length}, recovered ${r.recovered.length}, cleaned ${r.cleaned.length}, expired ${r.expired.length}, unreadable ${r.unreadable.length}`);
+	} catch (err) {
+		log(`reconciler failed: ${(err as Error).message}`);
+	} finally {
+		running = false;
+	}
+}
+await pass();
+const timer = setInterval(pass, cfg.MENISCUS_RECONCILE_MINUTES * 60_000);
+log(`photo worker ready (${cfg.MENISCUS_PHOTO_JOBS} job(s) at a time, ${cfg.MENISCUS_SHARP_THREADS} thread(s) each)`);
+
+async function stop() {
+	clearInterval(timer);
+	await stopQueue();
+	await closeDb();
+	process.exit(0);
+}
+process.on('SIGTERM', stop);
+process.on('SIGINT', stop);

@@ -1,0 +1,140 @@
+import fsp from 'node:fs/promises';
+import path from 'node:path';
+import sharp from 'sharp';
+import exifr from 'exifr';
+import { checkEnd, sniffHead, type RasterKind } from '../../photos/sniff.ts';
+import { DISPLAY_LONG_EDGE, MAX_PIXELS, THUMBNAIL_LONG_EDGE, TILE_SIZE } from '../../photos/limits.ts';
+import { summariseExif, type StoredExif } from '../../photos/exif.ts';
+import { readSlice, removeQuietly } from './storage.ts';
+
+/**
+ * The image work of an upload, with no database in it (so the benchmark runs exactly this):
+ * inspect the bytes and the header before any pixel is decoded, then decode once and fan out the
+ * thumbnail, the display copy and the IIIF tile pyramid from the one decoded raster.
+ */
+
+export type Refusal = { code: string; reason: string };
+export type Inspection =
+	| { ok: true; kind: RasterKind; mime: string; width: number; height: number; orientation: number | null; pages: number }
+	| { ok: false; refusal: Refusal };
+
+/** Decoding and encoding stop after this long; a file that takes longer is refused, not waited on. */
+const SHARP_TIMEOUT_S = 180;
+
+const DECODABLE: ReadonlySet<RasterKind> = new Set(['jpeg', 'png', 'tiff', 'webp']);
+
+/** Options for every sharp instance that reads an upload: the pixel limit, and fail on truncation. */
+export const inputOptions = { limitInputPixels: MAX_PIXELS, failOn: 'truncated', sequentialRead: true } as const;
+
+/** Threads libvips may use per operation; set once per process by the worker. */
+export function configureSharp(threads: number): void {
+	sharp.concurrency(threads);
+	// Uploads are read once; libvips's operation cache would only hold memory.
+	sharp.cache(false);
+}
+
+const refuse = (code: string, reason: string): Inspection => ({ ok: false, refusal: { code, reason } });
+
+/** Bytes first, then the header: nothing here decodes pixels. */
+export async function inspect(file: string): Promise<Inspection> {
+	const size = (await fsp.stat(file)).size;
+	const head = await readSlice(file, 0, 4096);
+	const sniff = sniffHead(head, size);
+	if (!sniff.ok) return refuse(sniff.code, sniff.reason);
+	if (sniff.kind === 'heic') return refuse('heic', 'This is a HEIC photo. This server cannot decode HEIC; export it from the camera or phone as JPEG or TIFF and upload that.');
+	if (!DECODABLE.has(sniff.kind)) return refuse('not-accepted', `This is ${sniff.kind.toUpperCase()} image data, which is not accepted for record photographs; upload JPEG, PNG, TIFF or WebP.`);
+	const tail = await readSlice(file, Math.max(0, size - 4096), Math.min(size, 4096));
+	const end = checkEnd(sniff.kind, head, tail, size);
+	if (!end.ok) return refuse(end.code, end.reason);
+	let meta: sharp.Metadata;
+	try {
+		// limitInputPixels: false here so that the size can be reported; the check follows at once.
+		meta = await sharp(file, { ...inputOptions, limitInputPixels: false }).metadata();
+	} catch (err) {
+		return refuse('unreadable', `The image header cannot be read (${shortError(err)}); the file is damaged or not what it claims to be.`);
+	}
+	const fmt = meta.format === 'jpg' ? 'jpeg' : meta.format;
+	if (fmt !== sniff.kind) return refuse('mismatch', `The bytes start like ${sniff.kind.toUpperCase()} but decode as ${String(meta.format).toUpperCase()}; the file is not accepted.`);
+	const width = meta.width ?? 0;
+	const height = meta.height ?? 0;
+	if (!(width > 0 && height > 0)) return refuse('unreadable', 'The image header states no pixel size.');
+	if (width * height > MAX_PIXELS) {
+		return refuse(
+			'too-many-pixels',
+			`The image declares ${width.toLocaleString('en-GB')} × ${height.toLocaleString('en-GB')} pixels (${Math.round((width * height) / 1e6).toLocaleString('en-GB')} megapixels); the limit is ${MAX_PIXELS / 1e6} megapixels.`,
+		);
+	}
+	const orientation = meta.orientation ?? null;
+	const swap = orientation !== null && orientation >= 5 && orientation <= 8;
+	return { ok: true, kind: sniff.kind, mime: sniff.mime, width: swap ? height : width, height: swap ? width : height, orientation, pages: meta.pages ?? 1 };
+}
+
+export async function readExif(file: string): Promise<StoredExif> {
+	try {
+		const tags = await exifr.parse(file, { tiff: true, exif: true, gps: true, ifd1: false, interop: false, xmp: false, icc: false, iptc: false, reviveValues: false, translateValues: false, mergeOutput: true });
+		return summariseExif(tags as Record<string, unknown> | undefined);
+	} catch {
+		// A photo without readable EXIF is still a photo (scans, exports); its EXIF is simply empty.
+		return summariseExif(null);
+	}
+}
+
+export interface DerivativeFile {
+	kind: 'thumbnail' | 'display' | 'tiles';
+	/** Relative to the set folder. */
+	path: string;
+	mediaType: string;
+	width: number;
+	height: number;
+	byteSize: number;
+}
+
+/**
+ * Writes the derivative set into `setDir` (which must not exist yet): decode the master once,
+ * upright and in sRGB, then resize and tile from that raster in parallel. Output carries no
+ * metadata at all (sharp drops EXIF, GPS and XMP unless asked to keep them).
+ */
+export async function makeDerivatives(master: string, setDir: string): Promise<DerivativeFile[]> {
+	await fsp.mkdir(setDir, { recursive: false });
+	try {
+		const decoded = await sharp(master, { ...inputOptions, pages: 1 })
+			.timeout({ seconds: SHARP_TIMEOUT_S })
+			.autoOrient()
+			.flatten({ background: '#ffffff' })
+			.toColourspace('srgb')
+			.raw({ depth: 'uchar' })
+			.toBuffer({ resolveWithObject: true });
+		const { width, height, channels } = decoded.info;
+		const from = () => sharp(decoded.data, { raw: { width, height, channels }, limitInputPixels: MAX_PIXELS }).timeout({ seconds: SHARP_TIMEOUT_S });
+		const resized = async (kind: 'thumbnail' | 'display', edge: number, quality: number): Promise<DerivativeFile> => {
+			const file = `${kind}.jpg`;
+			const info = await from()
+				.resize(edge, edge, { fit: 'inside', withoutEnlargement: true })
+				.jpeg({ quality, mozjpeg: false, chromaSubsampling: kind === 'display' ? '4:4:4' : '4:2:0' })
+				.toFile(path.join(setDir, file));
+			return { kind, path: file, mediaType: 'image/jpeg', width: info.width, height: info.height, byteSize: info.size };
+		};
+		const tiles = async (): Promise<DerivativeFile> => {
+			// The id written into info.json is replaced when it is served (it depends on the address used).
+			await from().jpeg({ quality: 84 }).tile({ layout: 'iiif3', size: TILE_SIZE, id: 'meniscus:' }).toFile(path.join(setDir, 'tiles'));
+			// libvips writes a properties file beside the pyramid; nothing needs it.
+			await removeQuietly(path.join(setDir, 'vips-properties.xml'));
+			const info = await fsp.stat(path.join(setDir, 'tiles', 'info.json'));
+			return { kind: 'tiles', path: 'tiles/info.json', mediaType: 'application/ld+json', width, height, byteSize: info.size };
+		};
+		return await Promise.all([resized('thumbnail', THUMBNAIL_LONG_EDGE, 80), resized('display', DISPLAY_LONG_EDGE, 86), tiles()]);
+	} catch (err) {
+		await removeQuietly(setDir);
+		throw err;
+	}
+}
+
+/** Errors from libvips that mean "this file is bad", as opposed to "the machine had a problem". */
+export function isDecodeError(err: unknown): boolean {
+	const m = String((err as Error)?.message ?? err);
+	return /VipsJpeg|Premature end|truncated|corrupt|not a known|unsupported image format|Input file has corrupt|bad seek|Input image exceeds pixel limit|read error|invalid|VipsForeignLoad|timeout/i.test(m);
+}
+
+export function shortError(err: unknown): string {
+	return (String((err as Error)?.message ?? err).split('\n')[0] ?? '').slice(0, 200);
+}

@@ -1,0 +1,98 @@
+import { Op } from 'sequelize';
+import { PhotoUpload } from '../models/index.ts';
+import { audit } from '../audit.ts';
+import { metaFromTus, UploadMetaSchema } from '../../photos/schema.ts';
+import { listIncoming, readTusInfo, receivedBytes, removeIncoming } from './incoming.ts';
+import { enqueueIngest } from './queue.ts';
+import { UUID } from './storage.ts';
+
+/**
+ * The reconciler: compares incoming/ with the upload records and mends what a crash left behind.
+ * - bytes complete on disk but never queued (the app died between the last byte and the queue, or
+ *   the queue was down): queued now;
+ * - bytes complete with no record at all (the record was lost with a restored database): recorded
+ *   from the metadata tus kept beside them, which names the uploader the server saw;
+ * - leftovers of uploads already recorded or refused: removed;
+ * - unfinished uploads nobody has touched for a week: expired and removed.
+ * It runs when the worker starts and every few minutes after.
+ */
+export const EXPIRE_AFTER_DAYS = 7;
+
+export interface ReconcileReport {
+	queued: string[];
+	recovered: string[];
+	cleaned: string[];
+	expired: string[];
+	unreadable: string[];
+}
+
+export async function reconcile(now = new Date(), enqueue: (id: string) => Promise<void> = enqueueIngest): Promise<ReconcileReport> {
+	const report: ReconcileReport = { queued: [], recovered: [], cleaned: [], expired: [], unreadable: [] };
+	const expiredBefore = new Date(now.getTime() - EXPIRE_AFTER_DAYS * 86_400_000);
+	for (const id of await listIncoming()) {
+		const received = await receivedBytes(id);
+		if (received === null) continue;
+		let row = await PhotoUpload.findByPk(id);
+		if (!row) {
+			const info = await readTusInfo(id);
+			row = info ? await recover(id, info.size, info.metadata) : null;
+			if (!row) {
+				report.unreadable.push(id);
+				continue;
+			}
+			report.recovered.push(id);
+		}
+		if (row.state === 'recorded' || row.state === 'refused' || row.state === 'quarantined') {
+			await removeIncoming(id);
+			report.cleaned.push(id);
+			continue;
+		}
+		if (received >= row.declaredSize) {
+			if (!row.finishedAt) await row.update({ finishedAt: now });
+			await enqueue(id);
+			report.queued.push(id);
+		} else if (row.updatedAt < expiredBefore) {
+			await row.update({ state: 'refused', refusalCode: 'expired', reason: `The upload stopped at ${received} of ${row.declaredSize} bytes and was not resumed within ${EXPIRE_AFTER_DAYS} days.` });
+			await removeIncoming(id);
+			report.expired.push(id);
+		}
+	}
+	// Records whose bytes finished but whose job was lost (a queue emptied by a restore, say).
+	const stale = await PhotoUpload.findAll({ where: { state: 'receiving', finishedAt: { [Op.ne]: null }, updatedAt: { [Op.lt]: new Date(now.getTime() - 10 * 60_000) } }, attributes: ['id'] });
+	for (const { id } of stale) {
+		if (!report.queued.includes(id) && (await receivedBytes(id)) !== null) {
+			await enqueue(id);
+			report.queued.push(id);
+		}
+	}
+	return report;
+}
+
+async function recover(id: string, size: number | undefined, metadata: Record<string, string | null> | undefined): Promise<PhotoUpload | null> {
+	const meta = UploadMetaSchema.safeParse(metaFromTus(metadata));
+	const uploaderId = metadata?.uploaderId;
+	if (!meta.success || !uploaderId || !UUID.test(uploaderId) || size === undefined || size <= 0) return null;
+	try {
+		const row = await PhotoUpload.create({
+			id,
+			specimenId: meta.data.specimenId,
+			checkId: meta.data.checkId ?? null,
+			view: meta.data.view,
+			stage: meta.data.stage,
+			fileName: meta.data.filename,
+			declaredType: meta.data.filetype ?? null,
+			declaredSize: size,
+			clientSha256: meta.data.sha256 ?? null,
+			uploaderId,
+			refusalCode: null,
+			reason: null,
+			photoId: null,
+			finishedAt: null,
+		});
+		await audit({ action: 'photo.upload-recovered', entityType: 'photo_upload', entityId: id, actorId: uploaderId, after: { fileName: meta.data.filename, size } });
+		return row;
+	} catch {
+		// The specimen or the uploader no longer exists: nothing to attach it to.
+		return null;
+	}
+}

@@ -1,0 +1,80 @@
+import { Server } from '@tus/server';
+import { FileStore } from '@tus/file-store';
+import type { SignedInUser } from '../auth/lucia.ts';
+import { config } from '../config.ts';
+import { MAX_UPLOAD_BYTES } from '../../photos/limits.ts';
+import { dirs, ensureDirs, SAFE_ID } from './storage.ts';
+import { createUploadRecord, markFinished, uploadOf, UploadRefused } from './uploads.ts';
+import { enqueueIngest } from './queue.ts';
+
+/**
+ * The tus 1.0 server behind /api/uploads (the one catch-all endpoint). The endpoint has already
+ * signed the user in and checked their role; here every request is tied to the upload's owner,
+ * creation validates the metadata and the target record, a finished upload is queued for the
+ * worker and cannot be deleted, and ids are only ever lowercase hex (no `../`, no `%2F`).
+ */
+export const UPLOADS_PATH = '/api/uploads';
+
+const who = new WeakMap<Request, SignedInUser>();
+
+const tusError = (status: number, body: string) => ({ status_code: status, body: `${body}\n` });
+
+function userOf(req: Request): SignedInUser {
+	const u = who.get(req);
+	if (!u) throw tusError(401, 'Sign in first.');
+	return u;
+}
+
+async function guard<T>(run: () => Promise<T>): Promise<T> {
+	try {
+		return await run();
+	} catch (err) {
+		if (err instanceof UploadRefused) throw tusError(err.status, err.message);
+		throw err;
+	}
+}
+
+let server: Server | undefined;
+
+function tusServer(): Server {
+	if (server) return server;
+	ensureDirs();
+	const origin = new URL(config().MENISCUS_PUBLIC_URL).origin;
+	server = new Server({
+		path: UPLOADS_PATH,
+		relativeLocation: true,
+		datastore: new FileStore({ directory: dirs.incoming() }),
+		maxSize: MAX_UPLOAD_BYTES,
+		allowedOrigins: [origin],
+		disableTerminationForFinishedUploads: true,
+		getFileIdFromRequest: (_req, id) => (id !== undefined && SAFE_ID.test(id) ? id : undefined),
+		onIncomingRequest: async (req, id) => {
+			const user = userOf(req);
+			// Creation is checked in onUploadCreate; every other request must be the owner's.
+			if (req.method !== 'POST') await guard(() => uploadOf(user, id));
+		},
+		onUploadCreate: async (req, upload) => {
+			const user = userOf(req);
+			await guard(() => createUploadRecord(user, upload.id, upload.metadata, upload.size));
+			// What the worker reads back from incoming/<id>.json; the uploader is the server's word.
+			return { metadata: { ...upload.metadata, uploaderId: user.id } };
+		},
+		onUploadFinish: async (_req, upload) => {
+			await markFinished(upload.id);
+			// If the queue is unreachable the bytes are safe on disk and the reconciler queues them.
+			await enqueueIngest(upload.id).catch((err) => console.error(`[uploads] could not queue ${upload.id}: ${err.message}`));
+			return {};
+		},
+		onResponseError: (_req, err) => {
+			if ('status_code' in err && err.status_code < 500) return undefined;
+			console.error(`[uploads] ${'message' in err ? err.message : err.body}`);
+			return { status_code: 500, body: 'The upload could not be stored; try again.\n' };
+		},
+	});
+	return server;
+}
+
+export async function handleTus(request: Request, user: SignedInUser): Promise<Response> {
+	who.set(request, user);
+	return tusServer().handleWeb(request);
+}
