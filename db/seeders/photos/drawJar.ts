@@ -319,7 +319,7 @@ function layoutDetail(r: Resolved, size: JarMm, stage: Box, ppm0: number): Scene
 	const { w } = visibleMm(size, r.view);
 	const fieldW = stage.w / ppm0;
 	const fieldH = stage.h / ppm0;
-	const zoom = Math.min(1.7, fieldH / 196, fieldW / (w + 72));
+	const zoom = Math.min(1.7, fieldH / 190, fieldW / (w + 72));
 	const ppm = ppm0 * zoom;
 	const cx = stage.x + 10 * ppm + (w / 2 + 2) * ppm;
 	// Place once at baseY 0 to find the focus (halfway from lid to fluid line), then move it to mid-frame.
@@ -327,7 +327,8 @@ function layoutDetail(r: Resolved, size: JarMm, stage: Box, ppm0: number): Scene
 	const focus = (probe.lidTopY + probe.fluidLineY) / 2;
 	const jar = placeJar(r, size, { ppm, tiltDeg: 3, cx, baseY: stage.y + stage.h / 2 - focus });
 	const colX = jar.cx + jar.lidRx + 12 * ppm;
-	const colH = (40 + 12 + 110) * ppm;
+	// Card (with its mount and print) above, a gap, then the ruler card (5 mm below 0 to 110 mm).
+	const colH = (40 + 10 + 115) * ppm;
 	const colTop = stage.y + (stage.h - colH) / 2;
 	const rulerBottom = colTop + colH;
 	const x = r2(colX + 3.5 * ppm);
@@ -394,6 +395,8 @@ const innerRy = (j: Jar) => (j.round ? (j.ry * innerRx(j)) / j.rx : j.ry);
 
 /** Fluid as seen: the front column plus the surface seen from slightly above. */
 function fluidPath(j: Jar): string {
+	// A dry jar has no fluid at all, not a film on its base ("M0,0" clips to nothing).
+	if (j.fluidLineY >= j.innerBaseY) return 'M0,0';
 	return solidPath(j, j.fluidLineY, j.innerBaseY, innerRx(j), innerRy(j));
 }
 
@@ -421,14 +424,18 @@ function backdrop(sc: Scene, rng: () => number): string {
 <rect width="${W}" height="${H}" fill="url(#bg)"/><rect width="${W}" height="${H}" fill="url(#spot)"/><rect width="${W}" height="${H}" fill="url(#vig)"/>`;
 }
 
-/** Contact shadow under the base, a soft cast shadow to the right, and light thrown through the fluid. */
+/** Contact shadow under the base, a soft cast shadow behind to the right, light thrown through the fluid. */
 function jarShadows(sc: Scene, fluid: Rgb): string {
 	const j = sc.jar;
-	const floorRy = Math.max(j.ry, j.rx * sc.floorK * 2);
-	const contact = `<ellipse cx="${f(j.cx)}" cy="${f(j.baseY - j.ry * 0.6)}" rx="${f(j.rx * 1.12)}" ry="${f(floorRy * 0.9 + 4 * j.ppm)}" fill="url(#soft)" opacity="0.38"/>`;
-	const castX = j.cx + j.rx * 0.9;
-	const cast = `<ellipse cx="${f(castX)}" cy="${f(j.baseY - j.ry - 4 * j.ppm)}" rx="${f(j.rx * 1.5)}" ry="${f(floorRy + 10 * j.ppm)}" fill="url(#soft)" opacity="0.16"/>`;
-	const glow = `<ellipse cx="${f(castX + j.rx * 0.2)}" cy="${f(j.baseY - j.ry - 2 * j.ppm)}" rx="${f(j.rx * 0.7)}" ry="${f(floorRy * 0.6 + 5 * j.ppm)}" fill="${css(mix(fluid, [255, 255, 255], 0.3))}" opacity="0.1"/>`;
+	// The base's own footprint on the floor: the section ellipse (or face depth) at the base.
+	const footY = j.baseY - (j.round ? j.ry : j.ry / 2);
+	const footRy = Math.max(j.round ? j.ry : j.ry / 2, 3 * j.ppm);
+	const contact = `<ellipse cx="${f(j.cx)}" cy="${f(footY)}" rx="${f(j.rx * 1.1)}" ry="${f(footRy * 1.25 + 2 * j.ppm)}" fill="url(#soft)" opacity="0.4"/>`;
+	const castRy = Math.max(footRy * 1.2, 6 * j.ppm);
+	const castX = j.cx + j.rx * 0.55;
+	const castY = footY - castRy * 0.45;
+	const cast = `<ellipse cx="${f(castX)}" cy="${f(castY)}" rx="${f(j.rx * 1.45)}" ry="${f(castRy)}" fill="url(#soft)" opacity="0.16"/>`;
+	const glow = `<ellipse cx="${f(castX + j.rx * 0.3)}" cy="${f(castY)}" rx="${f(j.rx * 0.55)}" ry="${f(castRy * 0.5)}" fill="${css(mix(fluid, [255, 255, 255], 0.3))}" opacity="0.12"/>`;
 	return contact + cast + glow;
 }
 
@@ -446,7 +453,9 @@ function greyCard(sc: Scene): string {
 	const k = sc.scaleBar.vertical ? 1 : sc.floorK;
 	const m = 2.5 * ppm;
 	const mount: Box = { x: b.x - m, y: b.y - m * k, w: b.w + 2 * m, h: b.h + (2 * m + 4 * ppm) * k };
-	const print = `<text x="${f(mount.x + mount.w / 2)}" y="0" font-family="serif" font-size="${f(2.4 * ppm)}" text-anchor="middle" fill="#55554f" transform="translate(0,${f(b.y + b.h + 4.2 * ppm * k)}) scale(1,${f(k)})">18% GREY · REFLECTANCE REFERENCE</text>`;
+	const words = '18% GREY · REFLECTANCE REFERENCE';
+	const fs = Math.min(2.4 * ppm, (0.9 * mount.w) / (0.62 * words.length));
+	const print = `<text x="${f(mount.x + mount.w / 2)}" y="0" font-family="serif" font-size="${f(fs)}" text-anchor="middle" fill="#55554f" transform="translate(0,${f(b.y + b.h + 4.2 * ppm * k)}) scale(1,${f(k)})">${words}</text>`;
 	// The grey itself is one flat fill exactly on the truth box; nothing is drawn over it.
 	return propShadow(mount, ppm) + `<rect x="${f(mount.x)}" y="${f(mount.y)}" width="${f(mount.w)}" height="${f(mount.h)}" fill="#efefeb"/>` +
 		`<rect x="${b.x}" y="${b.y}" width="${b.w}" height="${b.h}" fill="${css(GREY_CARD)}"/>${print}`;
@@ -494,21 +503,23 @@ function fish(): Art {
 	const back: Rgb = [132, 124, 98];
 	const belly: Rgb = [214, 204, 172];
 	const fin: Rgb = [168, 150, 112];
+	const body = 'M45,46 L55,46 C62,80 79,122 79,166 C79,208 66,240 50,262 C34,240 21,208 21,166 C21,122 38,80 45,46 Z';
 	return {
 		height: 262,
 		attach: [50, 27],
 		sideSqueeze: 0.32,
 		draw: (p) => `
 <path d="M44,50 C40,30 28,12 18,0 C34,6 46,16 50,27 C54,16 66,6 82,0 C72,12 60,30 56,50 Z" fill="${p(fin)}"/>
-<path d="M84,148 C97,158 99,190 90,212 C88,196 86,183 81,178 Z" fill="${p(fin)}"/>
-<path d="M18,124 C7,134 5,152 9,164 C13,154 16,148 19,146 Z" fill="${p(fin)}"/>
-<path d="M44,46 L56,46 C64,80 85,124 85,170 C85,216 68,250 50,262 C32,250 15,216 15,170 C15,124 36,80 44,46 Z" fill="${p(back)}"/>
-<path d="M44,46 L56,46 C64,80 85,124 85,170 C85,216 68,250 50,262 C32,250 15,216 15,170 C15,124 36,80 44,46 Z" fill="url(#vol)"/>
-<path d="M44,60 C38,96 17,130 18,172 C19,214 34,246 50,258 C40,236 32,206 34,170 C36,130 44,98 44,60 Z" fill="${p(belly)}" opacity="0.85"/>
+<path d="M77,140 C92,150 95,184 86,206 C84,190 81,178 76,174 Z" fill="${p(fin)}"/>
+<path d="M24,118 C12,128 10,148 14,160 C18,150 21,144 24,142 Z" fill="${p(fin)}"/>
+<path d="${body}" fill="${p(back)}"/>
+<path d="${body}" fill="url(#vol)"/>
+<path d="M45,60 C39,96 23,130 24,170 C25,208 36,240 50,258 C42,236 35,206 37,170 C39,130 45,98 45,60 Z" fill="${p(belly)}" opacity="0.85"/>
 <path d="M50,58 C55,110 58,170 52,238" fill="none" stroke="${p([96, 88, 68])}" stroke-width="1.2" opacity="0.7"/>
-<path d="M22,222 Q50,240 78,222" fill="none" stroke="${p([92, 82, 62])}" stroke-width="1.6"/>
-<ellipse cx="64" cy="206" rx="9" ry="16" fill="${p(fin)}" opacity="0.7" transform="rotate(-18 64 206)"/>
-<circle cx="38" cy="242" r="6" fill="${p([226, 222, 206])}"/><circle cx="37" cy="243" r="2.4" fill="${p([70, 64, 54])}"/>`,
+<path d="M28,218 Q50,234 72,218" fill="none" stroke="${p([92, 82, 62])}" stroke-width="1.6"/>
+<ellipse cx="60" cy="204" rx="8" ry="15" fill="${p(fin)}" opacity="0.7" transform="rotate(-18 60 204)"/>
+<path d="M47,258 L50,262 L53,258" fill="none" stroke="${p([80, 72, 56])}" stroke-width="1.2"/>
+<circle cx="41" cy="238" r="5" fill="${p([226, 222, 206])}"/><circle cx="40.5" cy="238.5" r="2" fill="${p([70, 64, 54])}"/>`,
 	};
 }
 
@@ -550,34 +561,47 @@ ${pins}`;
 }
 
 function snake(): Art {
-	const skin: Rgb = [126, 118, 84];
-	const dark: Rgb = [82, 76, 56];
-	const belly: Rgb = [196, 186, 150];
-	const coils = 5;
-	const gap = 15;
-	const rx = 40;
-	const ry = 10;
-	const cy0 = 17;
-	const height = cy0 + (coils - 1) * gap + ry + 7;
+	const skin: Rgb = [128, 120, 86];
+	const dark: Rgb = [86, 80, 58];
+	const belly: Rgb = [190, 180, 144];
+	const coils = [
+		{ dx: 1, rx: 34 },
+		{ dx: -1, rx: 38 },
+		{ dx: 0.5, rx: 40 },
+		{ dx: -0.5, rx: 41 },
+		{ dx: 1.5, rx: 39 },
+	];
+	const gap = 12.5;
+	const ry = 9;
+	const thick = 14;
+	const cy0 = ry + thick / 2;
+	const height = cy0 + (coils.length - 1) * gap + ry + thick / 2;
 	return {
 		height,
 		attach: null,
 		sideSqueeze: 1,
 		draw: (p, _rng, toBase) => {
-			const back: string[] = [];
-			const front: string[] = [];
-			for (let i = 0; i < coils; i++) {
+			// Far halves first, then the glass rod the snake is coiled round, then the near halves
+			// from the top down, so each lower turn lies in front of the one above it.
+			const arc = (i: number, near: boolean, stroke: string, w: number, extra = '') => {
+				const c = coils[i] ?? { dx: 0, rx: 40 };
 				const cy = cy0 + i * gap;
-				const l = `${50 - rx},${cy}`;
-				const rr = `${50 + rx},${cy}`;
-				back.push(`<path d="M${l} A${rx},${ry} 0 0 1 ${rr}" fill="none" stroke="${p(scaleRgb(skin, 0.8))}" stroke-width="13" stroke-linecap="round"/>`);
-				front.push(`<path d="M${l} A${rx},${ry} 0 0 0 ${rr}" fill="none" stroke="${p(skin)}" stroke-width="13" stroke-linecap="round"/>`);
-				front.push(`<path d="M${l} A${rx},${ry} 0 0 0 ${rr}" fill="none" stroke="${p(dark)}" stroke-width="7" stroke-dasharray="4 6"/>`);
-				front.push(`<path d="M${50 - rx + 2},${cy + 4} A${rx},${ry} 0 0 0 ${50 + rx - 2},${cy + 4}" fill="none" stroke="${p(belly)}" stroke-width="2" opacity="0.7"/>`);
-			}
-			const rod = `<rect x="47" y="2" width="6" height="${f(Math.max(toBase - 2, height))}" fill="${p([214, 228, 220])}" opacity="0.45" stroke="${p([110, 130, 120])}" stroke-width="0.6"/>`;
-			const head = `<ellipse cx="${50 + rx - 2}" cy="${cy0 - 2}" rx="9" ry="5.5" fill="${p(skin)}" transform="rotate(-12 ${50 + rx - 2} ${cy0 - 2})"/><circle cx="${50 + rx + 3}" cy="${cy0 - 4}" r="1.4" fill="${p([60, 56, 44])}"/>`;
-			return back.join('') + rod + front.join('') + head;
+				return `<path d="M${50 + c.dx - c.rx},${cy} A${c.rx},${ry} 0 0 ${near ? 0 : 1} ${50 + c.dx + c.rx},${cy}" fill="none" stroke="${stroke}" stroke-width="${w}" stroke-linecap="round"${extra}/>`;
+			};
+			const far = coils.map((_c, i) => arc(i, false, p(scaleRgb(skin, 0.78)), thick)).join('');
+			const near = coils
+				.map((_c, i) =>
+					arc(i, true, p(skin), thick) +
+					arc(i, true, p(dark), thick * 0.55, ` stroke-dasharray="5 7" stroke-dashoffset="${i * 4}" opacity="0.55"`) +
+					arc(i, true, p(belly), 2.2, ` transform="translate(0 ${thick * 0.36})" opacity="0.5"`),
+				)
+				.join('');
+			const rod = `<rect x="47" y="1" width="6" height="${f(Math.max(toBase - 1, height))}" fill="${p([214, 228, 220])}" opacity="0.4" stroke="${p([110, 130, 120])}" stroke-width="0.6"/>`;
+			const c0 = coils[0] ?? { dx: 0, rx: 34 };
+			const hx = 50 + c0.dx + c0.rx * 0.35;
+			const head = `<path d="M${hx - 8},${cy0 + ry - 2} C${hx - 2},${cy0 + ry - 9} ${hx + 14},${cy0 + ry - 8} ${hx + 17},${cy0 + ry - 3} C${hx + 14},${cy0 + ry + 3} ${hx},${cy0 + ry + 4} ${hx - 8},${cy0 + ry - 2} Z" fill="${p(scaleRgb(skin, 0.92))}"/>` +
+				`<circle cx="${hx + 9}" cy="${cy0 + ry - 4}" r="1.3" fill="${p([60, 56, 44])}"/>`;
+			return far + rod + near + head;
 		},
 	};
 }
@@ -646,7 +670,7 @@ function cephalopod(): Art {
 				arms.push(`<path d="${taperedArm(pts, 8, 1)}" fill="${p(i % 2 === 0 ? skin : deep)}"/>`);
 			}
 			const spots: string[] = [];
-			for (let i = 0; i < 14; i++) spots.push(`<circle cx="${f(between(rng, 34, 66))}" cy="${f(between(rng, 14, 88))}" r="${f(between(rng, 0.8, 1.8))}" fill="${p([150, 110, 96])}" opacity="0.7"/>`);
+			for (let i = 0; i < 9; i++) spots.push(`<circle cx="${f(between(rng, 34, 66))}" cy="${f(between(rng, 14, 88))}" r="${f(between(rng, 0.6, 1.4))}" fill="${p([160, 122, 106])}" opacity="0.45"/>`);
 			return `${arms.join('')}
 <path d="M50,0 C72,0 80,30 78,60 C76,82 66,96 50,98 C34,96 24,82 22,60 C20,30 28,0 50,0 Z" fill="${p(skin)}"/>
 <path d="M50,0 C72,0 80,30 78,60 C76,82 66,96 50,98 C34,96 24,82 22,60 C20,30 28,0 50,0 Z" fill="url(#vol)"/>
@@ -741,24 +765,30 @@ function highlights(j: Jar, shape: JarShape): string {
 }
 
 function fluidLayers(j: Jar, fluid: Rgb, rng: () => number): string {
+	// Old fluid drops a fine sediment on the inner base. Drawn from the stream even for a dry jar,
+	// so that the fill level does not reshuffle the label's jitter.
+	const sedimented = rng() >= 0.5;
+	if (j.fluidLineY >= j.innerBaseY) return '';
 	const rxi = innerRx(j);
 	const ryi = innerRy(j);
 	const dark = scaleRgb(fluid, 0.55);
 	const edge = `<linearGradient id="fedge" gradientUnits="userSpaceOnUse" x1="${f(j.cx - rxi)}" y1="0" x2="${f(j.cx + rxi)}" y2="0">
 <stop offset="0" stop-color="${css(dark)}" stop-opacity="0.5"/><stop offset="0.06" stop-color="${css(dark)}" stop-opacity="0"/>
 <stop offset="0.94" stop-color="${css(dark)}" stop-opacity="0"/><stop offset="1" stop-color="${css(dark)}" stop-opacity="0.5"/></linearGradient>`;
-	// Old fluid drops a fine sediment; a faint darker layer on the inner base.
-	const sediment = rng() < 0.5 ? '' : `<path d="${bandPath(j, j.innerBaseY - 3 * j.ppm * j.vs, j.innerBaseY, rxi, ryi)}" fill="${css(scaleRgb(fluid, 0.7))}" opacity="0.45"/>`;
+	const sedimentTop = Math.max(j.fluidLineY, j.innerBaseY - 3 * j.ppm * j.vs);
+	const sediment = sedimented ? `<path d="${bandPath(j, sedimentTop, j.innerBaseY, rxi, ryi)}" fill="${css(scaleRgb(fluid, 0.7))}" opacity="0.45"/>` : '';
 	const depth = `<linearGradient id="fdepth" gradientUnits="userSpaceOnUse" x1="0" y1="${f(j.fluidLineY)}" x2="0" y2="${f(j.innerBaseY)}">
-<stop offset="0" stop-color="#fff" stop-opacity="0.07"/><stop offset="0.5" stop-color="#fff" stop-opacity="0"/><stop offset="1" stop-color="#000" stop-opacity="0.07"/></linearGradient>`;
+<stop offset="0" stop-color="#fff" stop-opacity="0.04"/><stop offset="0.5" stop-color="#fff" stop-opacity="0"/><stop offset="1" stop-color="#000" stop-opacity="0.07"/></linearGradient>`;
+	// Nearly opaque: the fluid should read as its recorded colour, the backdrop only faintly through.
 	return `<defs>${edge}${depth}</defs>
-<path d="${fluidPath(j)}" fill="${css(fluid)}" fill-opacity="0.9"/>
+<path d="${fluidPath(j)}" fill="${css(fluid)}" fill-opacity="0.93"/>
 ${sediment}
 <path d="${fluidPath(j)}" fill="url(#fedge)"/><path d="${fluidPath(j)}" fill="url(#fdepth)"/>`;
 }
 
 /** The meniscus: the fluid's surface ellipse, lit from above, and the dark line where it meets the glass. */
 function meniscus(j: Jar, fluid: Rgb): string {
+	if (j.fluidLineY >= j.innerBaseY) return '';
 	const rxi = innerRx(j);
 	const ryi = innerRy(j);
 	const x0 = j.cx - rxi;
@@ -863,6 +893,7 @@ function frontLabel(j: Jar, text: string, rng: () => number, back: boolean, flui
 	return g(`<g clip-path="url(#cfluid)">${label(seen(scaleRgb(paper, 0.92)), 0.12, true)}</g><g clip-path="url(#cair)">${label(scaleRgb(paper, 0.92), 0.12, true)}</g>`);
 }
 
+/** Transmission through the jar's full depth of fluid (a label on the far side is seen through all of it). */
 function fluidTintRgb(fluid: Rgb): Rgb {
 	return fluid.map((c) => Math.min(1, c / 228)) as Rgb;
 }
@@ -972,7 +1003,8 @@ ${backdrop(sc, bgRng)}${jarShadows(sc, r.fluid)}${jar(sc, r, jarRng)}${scaleBar(
 /**
  * Fine luminance grain as a small tile of faint black and white specks: photographs are never
  * perfectly smooth, and it stops JPEG banding in the gradients. Plain "over" compositing of an
- * alpha tile costs far less than a soft-light blend, and the specks average out to no shift.
+ * alpha tile costs far less than a soft-light blend; half the specks lighten and half darken, so
+ * a mid grey (the card) moves by well under one level.
  */
 function grainTile(seed: number): { data: Buffer; size: number } {
 	const size = 256;

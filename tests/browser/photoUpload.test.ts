@@ -1,0 +1,54 @@
+import { describe, expect, it } from 'vitest';
+import { screenshotPath, signInAs, useBrowser } from '../helpers/browser.ts';
+import { signIn } from '../helpers/server.ts';
+import { makeSpecimen, openCheck, sampleJpeg } from '../helpers/photos.ts';
+
+/**
+ * A conservator drops three photographs on a check: the uploader shows each file's progress and
+ * the total, the server checks each one, and their thumbnails appear in the check's photographs.
+ */
+const browser = useBrowser();
+
+describe('photographs on a condition check', () => {
+	it('go from the drop area to thumbnails', async () => {
+		const cookie = await signIn('conservator@example.org');
+		const specimenId = await makeSpecimen(cookie, 'BRW');
+		const check = await openCheck(cookie, specimenId);
+		const page = await browser().newPage();
+		const errors: string[] = [];
+		page.on('console', (m) => m.type() === 'error' && errors.push(m.text()));
+		await signInAs(page, 'conservator', `/checks/${check.id}`);
+		await page.getByText('No photographs yet').waitFor();
+
+		const files = await Promise.all(
+			['front', 'left', 'lid'].map(async (name, i) => ({ name: `BRW-${name}.jpg`, mimeType: 'image/jpeg', buffer: await sampleJpeg(1200 + i * 100, 900) })),
+		);
+		// Dropped as a browser drops files: a DataTransfer on the Dashboard's drop area.
+		const handle = await page.evaluateHandle(
+			(fs) => {
+				const dt = new DataTransfer();
+				for (const f of fs) dt.items.add(new File([Uint8Array.from(atob(f.b64), (c) => c.charCodeAt(0))], f.name, { type: f.mimeType }));
+				return dt;
+			},
+			files.map((f) => ({ name: f.name, mimeType: f.mimeType, b64: f.buffer.toString('base64') })),
+		);
+		await page.dispatchEvent('.uppy-Dashboard-inner', 'dragover', { dataTransfer: handle });
+		await page.dispatchEvent('.uppy-Dashboard-inner', 'drop', { dataTransfer: handle });
+		await page.getByText('3 files selected').waitFor();
+		await page.screenshot({ path: screenshotPath('photos-selected'), fullPage: true });
+		await page.locator('.uppy-StatusBar-actionBtn--upload').click();
+		// The verdicts arrive per file, then the thumbnails.
+		await expect.poll(() => page.locator('[aria-label="What the server made of each upload"] li').filter({ hasText: 'Recorded' }).count(), { timeout: 30_000 }).toBe(3);
+		await expect.poll(() => page.locator('ul[aria-label=Photographs] img').count(), { timeout: 15_000 }).toBe(3);
+		await expect.poll(() => page.locator('ul[aria-label=Photographs] img').evaluateAll((imgs) => imgs.every((i) => (i as HTMLImageElement).naturalWidth > 0))).toBe(true);
+		await page.screenshot({ path: screenshotPath('photos-recorded'), fullPage: true });
+
+		// The photo page shows the hash and zooms through the tiles.
+		await page.locator('ul[aria-label=Photographs] a').first().click();
+		await page.getByText('SHA-256').waitFor();
+		await page.getByRole('button', { name: 'Zoom to full resolution' }).click();
+		await expect.poll(() => page.locator('[aria-label$="zoomable"] img').count()).toBeGreaterThan(0);
+		await page.screenshot({ path: screenshotPath('photo-page'), fullPage: true });
+		expect(errors.filter((e) => !/favicon/.test(e))).toEqual([]);
+	});
+});
