@@ -51,4 +51,23 @@ describe('photographs on a condition check', () => {
 		await page.screenshot({ path: screenshotPath('photo-page'), fullPage: true });
 		expect(errors.filter((e) => !/favicon/.test(e))).toEqual([]);
 	});
+
+	it('are matched to specimens by the object numbers in their file names when dropped on the register', async () => {
+		const page = await browser().newPage();
+		await signInAs(page, 'conservator', '/specimens');
+		await page.getByText('Add photographs of many specimens at once').click();
+		const files = await Promise.all(['STC.1898.014 front.jpg', 'stc-1902-003_lid.jpg', 'IMG_0001.jpg'].map(async (name) => ({ name, mimeType: 'image/jpeg', buffer: await sampleJpeg(800, 600) })));
+		await page.getByLabel('Photographs to match').setInputFiles(files);
+		const table = page.getByRole('table', { name: 'Matches to confirm' });
+		await expect.poll(() => table.locator('tbody tr').count()).toBe(3);
+		await expect.poll(() => table.locator('tbody tr').nth(0).textContent()).toMatch(/STC\.1898\.014/);
+		await expect.poll(() => table.locator('tbody tr').nth(1).textContent()).toMatch(/STC\.1902\.003/);
+		await expect.poll(() => table.locator('tbody tr').nth(2).textContent()).toMatch(/No object number found/);
+		await page.screenshot({ path: screenshotPath('photos-batch-matches'), fullPage: true });
+		await table.locator('tbody tr').nth(2).getByLabel('Find the specimen').fill('STC.1902.017');
+		await table.locator('tbody tr').nth(2).getByRole('button', { name: /STC\.1902\.017/ }).click();
+		await page.getByRole('button', { name: 'Upload 3 confirmed photographs' }).click();
+		await expect.poll(() => page.locator('[aria-label="What the server made of each upload"] li').filter({ hasText: 'Recorded' }).count(), { timeout: 30_000 }).toBe(3);
+		await page.screenshot({ path: screenshotPath('photos-batch-done'), fullPage: true });
+	});
 });

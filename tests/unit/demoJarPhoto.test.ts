@@ -9,6 +9,7 @@ import {
 	type JarShape,
 	type SpecimenSilhouette,
 } from '../../db/seeders/photos/drawJar.ts';
+import { captureInstant, summariseExif } from '../../src/lib/photos/exif.ts';
 
 /** The renderer draws invented demo photographs; these tests hold it to what its truth claims. */
 const base: JarPhotoParams = {
@@ -74,7 +75,24 @@ describe('renderJarPhoto', () => {
 		expect(tags.Model).toBe('Survey 24');
 		expect(tags.LensModel).toBe('Demo 50mm F2.8 Macro');
 		expect(tags.FocalLength).toBe(50);
+		expect(tags.ImageDescription).toBe('Invented demo photograph of STC.1898.014, front view');
 		expect(tags.ISO).toBeGreaterThan(0);
+	});
+
+	it('reads back through the app\'s own EXIF summary as a dated capture from the invented camera', async () => {
+		const { jpeg } = await renderJarPhoto(base);
+		// The options readExif() uses for uploads.
+		const tags = await exifr.parse(jpeg, { tiff: true, exif: true, gps: true, ifd1: false, interop: false, xmp: false, icc: false, iptc: false, reviveValues: false, translateValues: false, mergeOutput: true });
+		const e = summariseExif(tags);
+		expect(e.capture).toEqual({ raw: '2019:06:14 10:32:05', offset: '+01:00', subSec: null });
+		expect(captureInstant(e.capture.raw, e.capture.offset)?.toISOString()).toBe('2019-06-14T09:32:05.000Z');
+		expect(e.camera).toEqual({ make: 'Demo Optics', model: 'Survey 24' });
+		expect(e.lens.model).toBe('Demo 50mm F2.8 Macro');
+		expect(e.exposure.focalLengthMm).toBe(50);
+		expect(e.exposure.exposureTime).toBeGreaterThan(0);
+		expect(e.exposure.fNumber).toBeGreaterThanOrEqual(8);
+		expect(e.orientation).toBe(1);
+		expect(e.private.gps).toBeNull();
 	});
 
 	it('shows an 18% grey card that measures 119,119,119 (±3)', async () => {

@@ -1020,7 +1020,10 @@ function grainTile(seed: number): { data: Buffer; size: number } {
 	return { data, size };
 }
 
-/** An invented camera and lens: the seeder must never imply a real manufacturer. */
+/**
+ * An invented camera and lens: the seeder must never imply a real manufacturer. Orientation is
+ * not here: withExif cannot set it (libvips writes the image's own orientation, 1, over it).
+ */
 function exifFor(p: JarPhotoParams, rng: () => number): sharp.Exif {
 	const exposure = ['1/30', '1/60', '1/125'][Math.floor(rng() * 3)] ?? '1/60';
 	const fNumber = ['8', '11'][Math.floor(rng() * 2)] ?? '8';
@@ -1030,7 +1033,9 @@ function exifFor(p: JarPhotoParams, rng: () => number): sharp.Exif {
 			Make: 'Demo Optics',
 			Model: 'Survey 24',
 			Software: 'Meniscus demo seeder',
-			ImageDescription: `Invented demo photograph of ${p.objectNumber} (${p.view ?? 'front'} view)`,
+			// No closing "(…)": libvips drops a trailing " (…)" from string values, taking it for
+			// the description it appends to tags itself.
+			ImageDescription: `Invented demo photograph of ${p.objectNumber}, ${p.view ?? 'front'} view`,
 			DateTime: p.captureTime.local,
 		},
 		IFD2: {
@@ -1044,6 +1049,8 @@ function exifFor(p: JarPhotoParams, rng: () => number): sharp.Exif {
 			FocalLength: '50',
 			LensMake: 'Demo Optics',
 			LensModel: 'Demo 50mm F2.8 Macro',
+			// libvips otherwise writes 65535 ("uncalibrated"); the pixels are sRGB.
+			ColorSpace: '1',
 		},
 	};
 }
