@@ -5,9 +5,10 @@ import type { TestProject } from 'vitest/node';
 import { freePort, removeCluster, startCluster } from '../../db/cluster.mjs';
 import { ensureBuild } from '../../scripts/lib/build.mjs';
 import { startService, stopService, waitForHttp } from '../../scripts/lib/proc.mjs';
-import { openSequelize } from '../../src/lib/server/db.ts';
 import { migrateUp } from '../../db/migrate.ts';
 import { seedDemo } from '../../db/seeders/demo.ts';
+import { seedDemoPhotos } from '../../db/seeders/demoPhotos.ts';
+import { closeDb, openSequelize } from '../../src/lib/server/db.ts';
 import { startFakeSmtp } from '../../src/lib/server/mail/fakeSmtp.ts';
 
 /**
@@ -55,6 +56,14 @@ export default async function setup(project: TestProject) {
 		const sequelize = openSequelize(db.url);
 		await migrateUp(sequelize);
 		await seedDemo(sequelize, { password: TEST_PASSWORD });
+		// The demo photographs go through the real ingest, which reads its settings from the environment.
+		const uploadsDir = path.join(tmp, 'uploads');
+		process.env.DATABASE_URL = db.url;
+		process.env.MENISCUS_UPLOADS_DIR = uploadsDir;
+		const photosStarted = Date.now();
+		const photos = await seedDemoPhotos(sequelize, { scope: 'latest' });
+		console.log(`[test setup] ${photos} demo photographs drawn and ingested in ${((Date.now() - photosStarted) / 1000).toFixed(1)} s`);
+		await closeDb();
 		await sequelize.close();
 
 		ensureBuild(root, (m: string) => console.log(`[test setup] ${m}`));
@@ -62,7 +71,6 @@ export default async function setup(project: TestProject) {
 		smtp = await startFakeSmtp({ mailboxDir, log: quiet });
 		const port = await freePort();
 		const baseUrl = `http://127.0.0.1:${port}`;
-		const uploadsDir = path.join(tmp, 'uploads');
 		const env = {
 			HOST: '127.0.0.1',
 			PORT: String(port),
