@@ -12,6 +12,7 @@ export function useTestDatabase(): void {
 	process.env.DATABASE_URL = inject('databaseUrl');
 	process.env.MENISCUS_PUBLIC_URL = inject('baseUrl');
 	process.env.MENISCUS_MAILBOX_DIR = inject('mailboxDir');
+	process.env.MENISCUS_UPLOADS_DIR = inject('uploadsDir');
 }
 
 export interface Req {

@@ -1,8 +1,10 @@
+import fs from 'node:fs';
 import http from 'node:http';
+import path from 'node:path';
 import zlib from 'node:zlib';
 import sharp from 'sharp';
 import exifr from 'exifr';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, inject, it } from 'vitest';
 import { baseUrl, call, useTestDatabase } from '../helpers/server.ts';
 import { cookieFor, makeUser } from '../helpers/users.ts';
 import { makeSpecimen, openCheck, sampleJpeg, settled, sha256, tusUpload } from '../helpers/photos.ts';
@@ -265,3 +267,40 @@ function rawStatus(path: string, cookie: string): Promise<number> {
 		req.end();
 	});
 }
+
+describe('derivative sets', () => {
+	it('are replaced whole when remade, and the old set is removed', async () => {
+		const { regenerateDerivatives } = await import('../../src/lib/server/photos/ingest.ts');
+		const { PhotoDerivative } = await import('../../src/lib/server/models/index.ts');
+		const bytes = await sampleJpeg(900, 700);
+		const { id } = await tusUpload(bytes, { cookie: conservator, meta: meta('remake.jpg') });
+		const { photoId } = await settled(conservator, id);
+		const before = await Photo.findByPk(photoId!);
+		const oldDir = path.join(inject('uploadsDir'), 'derivatives', photoId!, before!.derivativeSet);
+		expect(fs.existsSync(oldDir)).toBe(true);
+		const set = await regenerateDerivatives(photoId!);
+		expect(set).not.toBe(before!.derivativeSet);
+		expect(fs.existsSync(oldDir)).toBe(false);
+		const rows = await PhotoDerivative.findAll({ where: { photoId: photoId! } });
+		expect(rows.map((r) => r.setId)).toEqual([set, set, set]);
+		expect((await Photo.findByPk(photoId!))!.sha256).toBe(sha256(bytes));
+		expect((await call(`/api/photos/${photoId}/display`, { cookie: curator })).status).toBe(200);
+	});
+});
+
+describe('the reconciler', () => {
+	it('removes a half-made derivative set left by a run that died, and leaves a fresh one alone', async () => {
+		const { reconcile } = await import('../../src/lib/server/photos/reconcile.ts');
+		const work = path.join(inject('uploadsDir'), 'work');
+		const stale = path.join(work, `stale${process.pid}`);
+		const fresh = path.join(work, `fresh${process.pid}`);
+		for (const d of [stale, fresh]) fs.mkdirSync(path.join(d, 'tiles'), { recursive: true });
+		const twoHoursAgo = new Date(Date.now() - 2 * 3600_000);
+		fs.utimesSync(stale, twoHoursAgo, twoHoursAgo);
+		// The worker's own reconciler (every few seconds in the tests) may get there first; either way it goes.
+		await reconcile(new Date(), async () => {});
+		expect(fs.existsSync(stale)).toBe(false);
+		expect(fs.existsSync(fresh)).toBe(true);
+		fs.rmSync(fresh, { recursive: true });
+	});
+});

@@ -1,10 +1,12 @@
+import fsp from 'node:fs/promises';
+import path from 'node:path';
 import { Op } from 'sequelize';
 import { PhotoUpload } from '../models/index.ts';
 import { audit } from '../audit.ts';
 import { metaFromTus, UploadMetaSchema } from '../../photos/schema.ts';
 import { listIncoming, readTusInfo, receivedBytes, removeIncoming } from './incoming.ts';
 import { enqueueIngest } from './queue.ts';
-import { UUID } from './storage.ts';
+import { dirs, removeQuietly, UUID } from './storage.ts';
 
 /**
  * The reconciler: compares incoming/ with the upload records and mends what a crash left behind.
@@ -13,12 +15,17 @@ import { UUID } from './storage.ts';
  * - bytes complete with no record at all (the record was lost with a restored database): recorded
  *   from the metadata tus kept beside them, which names the uploader the server saw;
  * - leftovers of uploads already recorded or refused: removed;
- * - unfinished uploads nobody has touched for a week: expired and removed.
+ * - unfinished uploads nobody has touched for a week: expired and removed;
+ * - half-made derivative sets in work/ left by a run that died: removed.
  * It runs when the worker starts and every few minutes after.
  */
 export const EXPIRE_AFTER_DAYS = 7;
 
+/** A half-made derivative set older than this belongs to a run that died. */
+export const WORK_STALE_MINUTES = 60;
+
 export interface ReconcileReport {
+	staleWork: string[];
 	queued: string[];
 	recovered: string[];
 	cleaned: string[];
@@ -27,7 +34,8 @@ export interface ReconcileReport {
 }
 
 export async function reconcile(now = new Date(), enqueue: (id: string) => Promise<void> = enqueueIngest): Promise<ReconcileReport> {
-	const report: ReconcileReport = { queued: [], recovered: [], cleaned: [], expired: [], unreadable: [] };
+	const report: ReconcileReport = { staleWork: [], queued: [], recovered: [], cleaned: [], expired: [], unreadable: [] };
+	report.staleWork = await removeStaleWork(now);
 	const expiredBefore = new Date(now.getTime() - EXPIRE_AFTER_DAYS * 86_400_000);
 	for (const id of await listIncoming()) {
 		const received = await receivedBytes(id);
@@ -66,6 +74,19 @@ export async function reconcile(now = new Date(), enqueue: (id: string) => Promi
 		}
 	}
 	return report;
+}
+
+async function removeStaleWork(now: Date): Promise<string[]> {
+	const removed: string[] = [];
+	for (const name of await fsp.readdir(dirs.work()).catch(() => [] as string[])) {
+		const full = path.join(dirs.work(), name);
+		const st = await fsp.stat(full).catch(() => null);
+		if (st && now.getTime() - st.mtimeMs > WORK_STALE_MINUTES * 60_000) {
+			await removeQuietly(full);
+			removed.push(name);
+		}
+	}
+	return removed;
 }
 
 async function recover(id: string, size: number | undefined, metadata: Record<string, string | null> | undefined): Promise<PhotoUpload | null> {
