@@ -70,4 +70,20 @@ describe('photographs on a condition check', () => {
 		await expect.poll(() => page.locator('[aria-label="What the server made of each upload"] li').filter({ hasText: 'Recorded' }).count(), { timeout: 30_000 }).toBe(3);
 		await page.screenshot({ path: screenshotPath('photos-batch-done'), fullPage: true });
 	});
+
+	it('are still listed after the tab is reloaded before they were sent', async () => {
+		const cookie = await signIn('conservator@example.org');
+		const check = await openCheck(cookie, await makeSpecimen(cookie, 'BRR'));
+		const page = await browser().newPage();
+		await signInAs(page, 'conservator', `/checks/${check.id}`);
+		await page.getByText('No photographs yet').waitFor();
+		await page.locator('.uppy-Dashboard-input').first().setInputFiles([{ name: 'BRR-restore.jpg', mimeType: 'image/jpeg', buffer: await sampleJpeg(640, 480) }]);
+		await page.getByText('1 file selected').waitFor();
+		// Golden Retriever writes the state as it changes; give it a moment, then lose the tab's memory.
+		await page.waitForTimeout(1500);
+		await page.reload();
+		await page.getByText('BRR-restore.jpg').waitFor({ timeout: 15_000 });
+		await page.locator('.uppy-StatusBar-actionBtn--upload').click();
+		await expect.poll(() => page.locator('ul[aria-label=Photographs] img').count(), { timeout: 30_000 }).toBe(1);
+	});
 });
