@@ -1,5 +1,5 @@
-// The photo worker: takes ingest jobs from the PostgreSQL queue (pg-boss) and runs the reconciler
-// at start and every few minutes. A process of its own, so that decoding a flood of large photos
+// The photo worker: takes ingest jobs from the PostgreSQL queue (pg-boss), and at start and every
+// few minutes runs the reconciler and a fixity pass (re-hashing masters checked longest ago). A process of its own, so that decoding a flood of large photos
 // never holds up the web server, and so that more workers can run on other machines later.
 // Started by `npm start` and by the tests; `npm run worker` runs one by hand.
 import { config } from '../src/lib/server/config.ts';
@@ -7,6 +7,7 @@ import { db, closeDb } from '../src/lib/server/db.ts';
 import { INGEST_QUEUE, queue, stopQueue, type IngestJob } from '../src/lib/server/photos/queue.ts';
 import { ingestUpload } from '../src/lib/server/photos/ingest.ts';
 import { reconcile } from '../src/lib/server/photos/reconcile.ts';
+import { fixityPass } from '../src/lib/server/photos/fixity.ts';
 import { configureSharp } from '../src/lib/server/photos/pipeline.ts';
 import { ensureDirs } from '../src/lib/server/photos/storage.ts';
 
@@ -34,8 +35,11 @@ async function pass() {
 		const r = await reconcile();
 		const n = r.queued.length + r.recovered.length + r.cleaned.length + r.expired.length;
 		if (n > 0 || r.unreadable.length > 0) log(`reconciler: queued ${r.queued.length}, recovered ${r.recovered.length}, cleaned ${r.cleaned.length}, expired ${r.expired.length}, unreadable ${r.unreadable.length}`);
+		// Re-hash up to 2 GiB of masters per pass, oldest-checked first.
+		const f = await fixityPass({ olderThanDays: cfg.MENISCUS_FIXITY_DAYS, byteBudget: 2 * 1024 ** 3 });
+		if (f.problems.length > 0) log(`fixity: ${f.problems.length} problem(s): ${f.problems.map((p) => `${p.photoId} ${p.outcome}`).join(', ')}`);
 	} catch (err) {
-		log(`reconciler failed: ${(err as Error).message}`);
+		log(`reconciler or fixity pass failed: ${(err as Error).message}`);
 	} finally {
 		running = false;
 	}

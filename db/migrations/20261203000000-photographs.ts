@@ -6,7 +6,8 @@ import type { MigrationParams } from 'umzug';
  * photo or a refusal, so the uploader can say why a file was refused and the reconciler can find
  * uploads that finished on disk but were never recorded. `photos` holds one row per master original
  * (never re-encoded, never deleted: the database refuses it), `photo_derivatives` the thumbnail,
- * display copy and tile pyramid made from it, replaced as a set.
+ * display copy and tile pyramid made from it, replaced as a set. `photo_fixity_checks` is the trail of
+ * the worker's periodic re-hashing of every master, which would show a file silently altered on disk.
  */
 type Ctx = MigrationParams<QueryInterface>;
 
@@ -119,6 +120,20 @@ export async function up({ context: qi }: Ctx): Promise<void> {
 			 ADD CONSTRAINT photo_uploads_recorded_check CHECK ((state = 'recorded') = (photo_id IS NOT NULL))`,
 			o,
 		);
+		await qi.createTable(
+			'photo_fixity_checks',
+			{
+				id: { type: DataTypes.BIGINT, primaryKey: true, autoIncrement: true },
+				photo_id: { ...ref('photos', false), onDelete: 'CASCADE' },
+				checked_at: now,
+				outcome: { type: DataTypes.STRING(10), allowNull: false },
+				sha256_seen: { type: DataTypes.CHAR(64), allowNull: true },
+				detail: { type: DataTypes.TEXT, allowNull: true },
+			},
+			o,
+		);
+		await qi.sequelize.query(`ALTER TABLE photo_fixity_checks ADD CONSTRAINT photo_fixity_outcome_check CHECK (outcome IN ('match','mismatch','missing'))`, o);
+		await qi.addIndex('photo_fixity_checks', ['photo_id', 'checked_at'], o);
 		await qi.addIndex('photo_uploads', ['uploader_id', 'created_at'], o);
 		await qi.addIndex('photo_uploads', ['state'], o);
 	});
@@ -127,6 +142,7 @@ export async function up({ context: qi }: Ctx): Promise<void> {
 export async function down({ context: qi }: Ctx): Promise<void> {
 	await qi.sequelize.transaction(async (transaction) => {
 		const o = { transaction };
+		await qi.dropTable('photo_fixity_checks', o);
 		await qi.dropTable('photo_uploads', o);
 		await qi.dropTable('photo_derivatives', o);
 		await qi.dropTable('photos', o);

@@ -304,3 +304,35 @@ describe('the reconciler', () => {
 		fs.rmSync(fresh, { recursive: true });
 	});
 });
+
+describe('fixity checks', () => {
+	it('find a master altered on disk and one gone missing, and say so on the photo', async () => {
+		const { fixityPass } = await import('../../src/lib/server/photos/fixity.ts');
+		const [a, b] = await Promise.all(['fixity-a.jpg', 'fixity-b.jpg'].map(async (name, i) => {
+			const { id } = await tusUpload(await sampleJpeg(300 + i, 200), { cookie: conservator, meta: meta(name) });
+			return (await settled(conservator, id)).photoId!;
+		}));
+		const recorded = await (await call(`/api/photos/${a}`, { cookie: conservator })).json();
+		expect(recorded.photo.fixity.outcome).toBe('match');
+		const masterOf = async (id: string) => path.join(inject('uploadsDir'), (await Photo.findByPk(id))!.masterPath);
+		const fileA = await masterOf(a);
+		const fileB = await masterOf(b);
+		const original = fs.readFileSync(fileA);
+		fs.chmodSync(fileA, 0o644);
+		const altered = Buffer.from(original);
+		altered[altered.length - 10] ^= 0xff;
+		fs.writeFileSync(fileA, altered);
+		fs.renameSync(fileB, `${fileB}.away`);
+		try {
+			const later = new Date(Date.now() + 30 * 86_400_000);
+			const report = await fixityPass({ olderThanDays: 7, byteBudget: 10 * 1024 ** 3, now: later });
+			expect(report.problems).toEqual(expect.arrayContaining([{ photoId: a, outcome: 'mismatch' }, { photoId: b, outcome: 'missing' }]));
+			const shown = await (await call(`/api/photos/${a}`, { cookie: conservator })).json();
+			expect(shown.photo.fixity.outcome).toBe('mismatch');
+		} finally {
+			fs.writeFileSync(fileA, original);
+			fs.chmodSync(fileA, 0o444);
+			fs.renameSync(`${fileB}.away`, fileB);
+		}
+	});
+});

@@ -94,6 +94,18 @@ function Detail({ photo }: { photo: PhotoRecord }) {
 						<Row k="SHA-256" v={<code className="break-all text-xs">{photo.sha256}</code>} />
 						<Row k="Uploaded by" v={`${photo.uploadedBy.name}, ${when(photo.uploadedAt)}`} />
 						<Row k="Recorded" v={when(photo.recordedAt)} />
+						<Row
+							k="Fixity"
+							v={
+								!photo.fixity ? (
+									'not checked yet'
+								) : photo.fixity.outcome === 'match' ? (
+									`the master matched its SHA-256 on ${when(photo.fixity.checkedAt)}`
+								) : (
+									<strong className="text-alert-700">{photo.fixity.outcome === 'missing' ? 'the master is missing from storage' : 'the master no longer matches its SHA-256'} ({when(photo.fixity.checkedAt)}); tell an administrator</strong>
+								)
+							}
+						/>
 					</dl>
 					{photo.urls.original && (
 						<p className="mt-3">

@@ -23,4 +23,6 @@ export interface PhotoRecord {
 	recordedAt: string;
 	urls: { thumbnail: string; display: string; tiles: string; original: string | null; page: string };
 	derivatives: { kind: string; width: number; height: number; byteSize: number }[];
+	/** The latest re-hash of the master (on the photo's own page only). */
+	fixity?: { checkedAt: string; outcome: 'match' | 'mismatch' | 'missing' } | null;
 }

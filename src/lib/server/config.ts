@@ -27,6 +27,8 @@ const EnvSchema = z.object({
 	MENISCUS_SHARP_THREADS: z.coerce.number().int().min(1).max(64).default(1),
 	/** Minutes between reconciler passes in the worker (it also runs when the worker starts). */
 	MENISCUS_RECONCILE_MINUTES: z.coerce.number().positive().max(24 * 60).default(10),
+	/** Each master is re-hashed when its last fixity check is older than this. */
+	MENISCUS_FIXITY_DAYS: z.coerce.number().positive().max(3650).default(7),
 });
 
 export type Config = z.infer<typeof EnvSchema> & { secureCookies: boolean };

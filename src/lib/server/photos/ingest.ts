@@ -166,6 +166,8 @@ async function processClaimed(upload: PhotoUpload): Promise<IngestOutcome> {
 			{ transaction },
 		);
 		await upload.update({ state: 'recorded', photoId, refusalCode: null, reason: null }, { transaction });
+		// The first fixity check: the hash just computed from the bytes now in place.
+		await db().query(`INSERT INTO photo_fixity_checks (photo_id, outcome, sha256_seen) VALUES (:photoId, 'match', :sha256)`, { replacements: { photoId, sha256 }, transaction });
 		await audit({ action: 'photo.recorded', entityType: 'photo', entityId: photoId, actorId: upload.uploaderId, after: { fileName: upload.fileName, sha256, specimenId: upload.specimenId, checkId: upload.checkId, width: found.width, height: found.height } }, transaction);
 	});
 	await removeOtherSets(photoId, setId);
