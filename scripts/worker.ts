@@ -32,8 +32,8 @@ async function pass() {
 	running = true;
 	try {
 		const r = await reconcile();
-		const n = r.queued.length + r.recovered.length + r.cleaned.length + r.expired.length;
-		if (n > 0 || r.unreadable.length > 0) log(`reconciler: queued ${r.queued.length}, recovered ${r.recovered.length}, cleaned ${r.cleaned.length}, expired ${r.expired.length}, unreadable ${r.unreadable.length}`);
+		const n = r.queued.length + r.recovered.length + r.refused.length + r.cleaned.length + r.expired.length;
+		if (n > 0 || r.unreadable.length > 0) log(`reconciler: queued ${r.queued.length}, recovered ${r.recovered.length}, refused ${r.refused.length}, cleaned ${r.cleaned.length}, expired ${r.expired.length}, unreadable ${r.unreadable.length}`);
 	} catch (err) {
 		log(`reconciler failed: ${(err as Error).message}`);
 	} finally {
