@@ -33,8 +33,8 @@ async function pass() {
 	running = true;
 	try {
 		const r = await reconcile();
-		const n = r.queued.length + r.recovered.length + r.cleaned.length + r.expired.length;
-		if (n > 0 || r.unreadable.length > 0) log(`reconciler: queued ${r.queued.length}, recovered ${r.recovered.length}, cleaned ${r.cleaned.length}, expired ${r.expired.length}, unreadable ${r.unreadable.length}`);
+		const n = r.queued.length + r.recovered.length + r.refused.length + r.cleaned.length + r.expired.length;
+		if (n > 0 || r.unreadable.length > 0) log(`reconciler: queued ${r.queued.length}, recovered ${r.recovered.length}, refused ${r.refused.length}, cleaned ${r.cleaned.length}, expired ${r.expired.length}, unreadable ${r.unreadable.length}`);
 		// Re-hash up to 2 GiB of masters per pass, oldest-checked first.
 		const f = await fixityPass({ olderThanDays: cfg.MENISCUS_FIXITY_DAYS, byteBudget: 2 * 1024 ** 3 });
 		if (f.problems.length > 0) log(`fixity: ${f.problems.length} problem(s): ${f.problems.map((p) => `${p.photoId} ${p.outcome}`).join(', ')}`);

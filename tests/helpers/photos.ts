@@ -17,31 +17,59 @@ export interface TusOptions {
 	uploadUrl?: string;
 	endpoint?: string;
 	origin?: string;
+	/** tus-js-client's retry delays; none by default, so a test sees the first failure. */
+	retryDelays?: number[];
 	onProgress?: (sent: number, total: number) => void;
+	/** After each PATCH the server accepted: the bytes it took, the new offset, the total. */
+	onChunkComplete?: (chunkSize: number, accepted: number, total: number) => void;
+	/** Every request the client is about to send (method, URL, headers), e.g. to read Upload-Offset. */
+	onBeforeRequest?: (req: tus.HttpRequest) => void;
+	onAfterResponse?: (req: tus.HttpRequest, res: tus.HttpResponse) => void;
 	/** Called with the Upload object once it has started, so a test can abort it. */
 	started?: (u: tus.Upload) => void;
 }
 
-export function tusUpload(data: Buffer | string, o: TusOptions): Promise<{ url: string; id: string }> {
+/**
+ * Starts an upload and hands back the client itself (to abort it) with a promise of the outcome.
+ * A file path is streamed from disk (tus-js-client slices it with fs read streams), never read
+ * whole into memory. An aborted upload's promise never settles: tus-js-client reports no error
+ * for an abort the caller asked for.
+ */
+export function tusStart(data: Buffer | string, o: TusOptions): { upload: tus.Upload; done: Promise<{ url: string; id: string }> } {
 	const input = typeof data === 'string' ? fs.createReadStream(data) : data;
 	const size = typeof data === 'string' ? fs.statSync(data).size : data.length;
-	return new Promise((resolve, reject) => {
-		const upload: tus.Upload = new tus.Upload(input, {
+	let upload!: tus.Upload;
+	const done = new Promise<{ url: string; id: string }>((resolve, reject) => {
+		upload = new tus.Upload(input, {
 			endpoint: o.endpoint ?? `${baseUrl()}/api/uploads/`,
 			uploadUrl: o.uploadUrl,
 			uploadSize: size,
 			chunkSize: o.chunkSize ?? (typeof data === 'string' ? 8 * 1024 * 1024 : Infinity),
-			retryDelays: [],
+			retryDelays: o.retryDelays ?? [],
 			metadata: o.meta,
 			headers: { ...(o.cookie ? { cookie: o.cookie } : {}), origin: o.origin ?? new URL(o.endpoint ?? baseUrl()).origin },
 			storeFingerprintForResuming: false,
 			onProgress: o.onProgress,
+			onChunkComplete: o.onChunkComplete,
+			onBeforeRequest: o.onBeforeRequest,
+			onAfterResponse: o.onAfterResponse,
 			onError: (err) => reject(err),
 			onSuccess: () => resolve({ url: upload.url!, id: uploadIdOf(upload.url!) }),
 		});
-		upload.start();
-		o.started?.(upload);
 	});
+	upload.start();
+	o.started?.(upload);
+	return { upload, done };
+}
+
+export function tusUpload(data: Buffer | string, o: TusOptions): Promise<{ url: string; id: string }> {
+	return tusStart(data, o).done;
+}
+
+/** tus 1.0.0 §HEAD: the server's offset and length for an upload, read with the owner's cookie. */
+export async function tusHead(url: string, cookie: string): Promise<{ status: number; offset: number; length: number; cacheControl: string | null }> {
+	const res = await fetch(url, { method: 'HEAD', headers: { cookie, 'tus-resumable': '1.0.0' } });
+	return { status: res.status, offset: Number(res.headers.get('upload-offset')), length: Number(res.headers.get('upload-length')), cacheControl: res.headers.get('cache-control') };
 }
 
 export const uploadIdOf = (url: string) => new URL(url, baseUrl()).pathname.split('/').pop()!;
@@ -80,6 +108,26 @@ export async function settled(cookie: string, id: string, ms = 60_000): Promise<
 }
 
 export const sha256 = (b: Buffer) => crypto.createHash('sha256').update(b).digest('hex');
+
+/** SHA-256 (hex) of a file or of its first `length` bytes, streamed: big test files stay on disk. */
+export async function sha256OfFile(file: string, length?: number): Promise<string> {
+	const hash = crypto.createHash('sha256');
+	const range = length === undefined ? {} : { start: 0, end: length - 1 };
+	if (length !== 0) for await (const chunk of fs.createReadStream(file, { ...range, highWaterMark: 1024 * 1024 })) hash.update(chunk as Buffer);
+	return hash.digest('hex');
+}
+
+/**
+ * An uncompressed RGB TIFF of width × height pixels written to `file` (3 bytes a pixel plus a
+ * small header): smooth noise scaled up, so every row differs (a shifted or repeated block
+ * changes the hash) and the worker's JPEG tiles still compress well. Written by sharp straight to
+ * the file; callers stream it from there.
+ */
+export async function writeTiff(file: string, width: number, height: number): Promise<number> {
+	const seed = await sharp({ create: { width: 96, height: 96, channels: 3, background: '#808080', noise: { type: 'gaussian', mean: 128, sigma: 60 } } }).png().toBuffer();
+	await sharp(seed).resize(width, height, { kernel: 'cubic' }).tiff({ compression: 'none' }).toFile(file);
+	return fs.statSync(file).size;
+}
 
 /** A photograph-like JPEG: a smooth gradient with some structure, so it compresses like one. */
 export async function sampleJpeg(width = 1600, height = 1200, exif?: Record<string, Record<string, string>>): Promise<Buffer> {

@@ -308,10 +308,10 @@ describe('the reconciler', () => {
 describe('fixity checks', () => {
 	it('find a master altered on disk and one gone missing, and say so on the photo', async () => {
 		const { fixityPass } = await import('../../src/lib/server/photos/fixity.ts');
-		const [a, b] = await Promise.all(['fixity-a.jpg', 'fixity-b.jpg'].map(async (name, i) => {
+		const [a, b] = (await Promise.all(['fixity-a.jpg', 'fixity-b.jpg'].map(async (name, i) => {
 			const { id } = await tusUpload(await sampleJpeg(300 + i, 200), { cookie: conservator, meta: meta(name) });
 			return (await settled(conservator, id)).photoId!;
-		}));
+		}))) as [string, string];
 		const recorded = await (await call(`/api/photos/${a}`, { cookie: conservator })).json();
 		expect(recorded.photo.fixity.outcome).toBe('match');
 		const masterOf = async (id: string) => path.join(inject('uploadsDir'), (await Photo.findByPk(id))!.masterPath);
@@ -320,7 +320,7 @@ describe('fixity checks', () => {
 		const original = fs.readFileSync(fileA);
 		fs.chmodSync(fileA, 0o644);
 		const altered = Buffer.from(original);
-		altered[altered.length - 10] ^= 0xff;
+		altered[altered.length - 10] = altered[altered.length - 10]! ^ 0xff;
 		fs.writeFileSync(fileA, altered);
 		fs.renameSync(fileB, `${fileB}.away`);
 		try {

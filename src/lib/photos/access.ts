@@ -20,7 +20,16 @@ export function mayUpload(role: Role, target: { specimenExists: boolean; check: 
 	if (target.check === 'missing') return { ok: false, status: 404, reason: 'No such condition check.' };
 	if (!target.check.specimenMatches) return { ok: false, status: 409, reason: 'That condition check belongs to another specimen.' };
 	if (role !== 'conservator') return { ok: false, status: 403, reason: 'Only conservators add photographs to a condition check.' };
-	const { state } = target.check;
+	return checkTakesPhotos(target.check.state);
+}
+
+/**
+ * Whether a check in this state still takes photographs: asked when an upload is created, before
+ * each later PATCH, and when its last byte is in, because a check can be submitted or approved
+ * while a large photo of it is still on its way (`null`: the check no longer exists).
+ */
+export function checkTakesPhotos(state: CheckState | null): UploadVerdict {
+	if (state === null) return { ok: false, status: 404, reason: 'No such condition check.' };
 	if (state === 'approved') return { ok: false, status: 409, reason: 'This check is approved and cannot change; open a new check to add photographs.' };
 	if (state === 'in-review') return { ok: false, status: 409, reason: 'This check is waiting for review; photographs can be added once it is returned, or to a new check.' };
 	return { ok: true };

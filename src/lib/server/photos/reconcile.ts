@@ -6,6 +6,7 @@ import { audit } from '../audit.ts';
 import { metaFromTus, UploadMetaSchema } from '../../photos/schema.ts';
 import { listIncoming, readTusInfo, receivedBytes, removeIncoming } from './incoming.ts';
 import { enqueueIngest } from './queue.ts';
+import { finishUpload } from './uploads.ts';
 import { dirs, removeQuietly, UUID } from './storage.ts';
 
 /**
@@ -14,12 +15,20 @@ import { dirs, removeQuietly, UUID } from './storage.ts';
  *   the queue was down): queued now;
  * - bytes complete with no record at all (the record was lost with a restored database): recorded
  *   from the metadata tus kept beside them, which names the uploader the server saw;
+ * - either of these for a check that has since been submitted or approved: refused, as tus would
+ *   have refused it (finishUpload), and removed;
  * - leftovers of uploads already recorded or refused: removed;
  * - unfinished uploads nobody has touched for a week: expired and removed;
  * - half-made derivative sets in work/ left by a run that died: removed.
  * It runs when the worker starts and every few minutes after.
  */
 export const EXPIRE_AFTER_DAYS = 7;
+/**
+ * A finished upload's job was queued when its last byte came in (and claiming it for processing
+ * touches the record again): only one left waiting longer than this is taken to have lost its job.
+ * Queuing every finished upload on every pass would give each one a second job.
+ */
+export const STALE_AFTER_MINUTES = 10;
 
 /** A half-made derivative set older than this belongs to a run that died. */
 export const WORK_STALE_MINUTES = 60;
@@ -28,15 +37,17 @@ export interface ReconcileReport {
 	staleWork: string[];
 	queued: string[];
 	recovered: string[];
+	refused: string[];
 	cleaned: string[];
 	expired: string[];
 	unreadable: string[];
 }
 
 export async function reconcile(now = new Date(), enqueue: (id: string) => Promise<void> = enqueueIngest): Promise<ReconcileReport> {
-	const report: ReconcileReport = { staleWork: [], queued: [], recovered: [], cleaned: [], expired: [], unreadable: [] };
+	const report: ReconcileReport = { staleWork: [], queued: [], recovered: [], refused: [], cleaned: [], expired: [], unreadable: [] };
 	report.staleWork = await removeStaleWork(now);
 	const expiredBefore = new Date(now.getTime() - EXPIRE_AFTER_DAYS * 86_400_000);
+	const staleBefore = new Date(now.getTime() - STALE_AFTER_MINUTES * 60_000);
 	for (const id of await listIncoming()) {
 		const received = await receivedBytes(id);
 		if (received === null) continue;
@@ -56,7 +67,16 @@ export async function reconcile(now = new Date(), enqueue: (id: string) => Promi
 			continue;
 		}
 		if (received >= row.declaredSize) {
-			if (!row.finishedAt) await row.update({ finishedAt: now });
+			if (!row.finishedAt) {
+				const finished = await finishUpload(id, now);
+				if (!finished.ok) {
+					await removeIncoming(id);
+					report.refused.push(id);
+					continue;
+				}
+			} else if (row.updatedAt >= staleBefore) {
+				continue;
+			}
 			await enqueue(id);
 			report.queued.push(id);
 		} else if (row.updatedAt < expiredBefore) {
@@ -66,7 +86,7 @@ export async function reconcile(now = new Date(), enqueue: (id: string) => Promi
 		}
 	}
 	// Records whose bytes finished but whose job was lost (a queue emptied by a restore, say).
-	const stale = await PhotoUpload.findAll({ where: { state: 'receiving', finishedAt: { [Op.ne]: null }, updatedAt: { [Op.lt]: new Date(now.getTime() - 10 * 60_000) } }, attributes: ['id'] });
+	const stale = await PhotoUpload.findAll({ where: { state: 'receiving', finishedAt: { [Op.ne]: null }, updatedAt: { [Op.lt]: staleBefore } }, attributes: ['id'] });
 	for (const { id } of stale) {
 		if (!report.queued.includes(id) && (await receivedBytes(id)) !== null) {
 			await enqueue(id);

@@ -4,7 +4,8 @@ import type { SignedInUser } from '../auth/lucia.ts';
 import { config } from '../config.ts';
 import { MAX_UPLOAD_BYTES } from '../../photos/limits.ts';
 import { dirs, ensureDirs, SAFE_ID } from './storage.ts';
-import { createUploadRecord, markFinished, uploadOf, UploadRefused } from './uploads.ts';
+import { assertMayContinue, createUploadRecord, finishUpload, uploadOf, UploadRefused } from './uploads.ts';
+import { removeIncoming } from './incoming.ts';
 import { enqueueIngest } from './queue.ts';
 
 /**
@@ -51,7 +52,10 @@ function tusServer(): Server {
 		onIncomingRequest: async (req, id) => {
 			const user = userOf(req);
 			// Creation is checked in onUploadCreate; every other request must be the owner's.
-			if (req.method !== 'POST') await guard(() => uploadOf(user, id));
+			if (req.method === 'POST') return;
+			const upload = await guard(() => uploadOf(user, id));
+			// More bytes only while the photo's check still takes photographs.
+			if (req.method === 'PATCH' || req.method === 'HEAD') await guard(() => assertMayContinue(upload));
 		},
 		onUploadCreate: async (req, upload) => {
 			const user = userOf(req);
@@ -60,7 +64,13 @@ function tusServer(): Server {
 			return { metadata: { ...upload.metadata, uploaderId: user.id } };
 		},
 		onUploadFinish: async (_req, upload) => {
-			await markFinished(upload.id);
+			const finished = await finishUpload(upload.id);
+			if (!finished.ok) {
+				// The check was submitted or approved while the bytes were on their way (a PATCH is
+				// checked when it starts, and a large one takes minutes). A refused file is not kept.
+				await removeIncoming(upload.id).catch(() => {});
+				throw tusError(403, finished.reason);
+			}
 			// If the queue is unreachable the bytes are safe on disk and the reconciler queues them.
 			await enqueueIngest(upload.id).catch((err) => console.error(`[uploads] could not queue ${upload.id}: ${err.message}`));
 			return {};

@@ -1,10 +1,10 @@
-import { Op } from 'sequelize';
+import { Op, Transaction } from 'sequelize';
 import { ConditionCheck, PhotoUpload, Specimen } from '../models/index.ts';
 import type { SignedInUser } from '../auth/lucia.ts';
 import { audit } from '../audit.ts';
 import { db } from '../db.ts';
 import { metaFromTus, UploadMetaSchema } from '../../photos/schema.ts';
-import { mayUpload } from '../../photos/access.ts';
+import { checkTakesPhotos, mayUpload } from '../../photos/access.ts';
 import { MAX_UPLOAD_BYTES, formatBytes } from '../../photos/limits.ts';
 import { UPLOAD_STATE_LABELS, type UploadState } from '../../photos/vocabulary.ts';
 
@@ -67,8 +67,50 @@ export async function uploadOf(user: SignedInUser, uploadId: string): Promise<Ph
 	return u;
 }
 
-export async function markFinished(uploadId: string): Promise<void> {
-	await PhotoUpload.update({ finishedAt: new Date() }, { where: { id: uploadId, finishedAt: null } });
+/**
+ * Before each HEAD and PATCH of an unfinished upload: bytes for a photo of a check are taken only
+ * while the check still takes photographs (a draft or a returned check), so nobody sends a large
+ * file that would be refused at the end. The upload itself is left as it is: once the check is
+ * returned it can be resumed. The HEAD matters as much as the PATCH: a PATCH refused before its
+ * body is read ends with the connection closed, which clients report as a network error and retry
+ * with a HEAD, so the HEAD's refusal is what makes tus-js-client and Uppy stop and, trying to start
+ * again, meet creation's refusal with its reason. 403, not 409: in tus a 409 to a PATCH means an
+ * offset conflict, which clients retry, and retrying does not make this refusal go away.
+ */
+export async function assertMayContinue(upload: PhotoUpload): Promise<void> {
+	// A finished upload has joined its check already; its HEAD must go on saying so (offset = length).
+	if (!upload.checkId || upload.finishedAt) return;
+	const check = await ConditionCheck.findByPk(upload.checkId, { attributes: ['id', 'state'] });
+	const verdict = checkTakesPhotos(check?.state ?? null);
+	if (!verdict.ok) throw new UploadRefused(403, verdict.reason);
+}
+
+export type FinishOutcome = { ok: true } | { ok: false; reason: string };
+
+/**
+ * Marks an upload's bytes complete: the moment a photo of a check joins that check. The check's
+ * row is read FOR SHARE, so a submission or approval running at the same time (an UPDATE of that
+ * row) waits for this transaction or is seen by it: the photo either arrived while the check took
+ * photographs or it is refused here, with its reason, and never recorded. Idempotent: called by
+ * tus when the last byte is in and by the reconciler for bytes that were complete but never marked.
+ */
+export async function finishUpload(uploadId: string, at = new Date()): Promise<FinishOutcome> {
+	return db().transaction(async (transaction) => {
+		const upload = await PhotoUpload.findByPk(uploadId, { transaction, lock: Transaction.LOCK.UPDATE });
+		if (!upload || upload.finishedAt) return { ok: true };
+		if (upload.state === 'receiving' && upload.checkId) {
+			const check = await ConditionCheck.findByPk(upload.checkId, { attributes: ['id', 'state'], transaction, lock: Transaction.LOCK.SHARE });
+			const verdict = checkTakesPhotos(check?.state ?? null);
+			if (!verdict.ok) {
+				const reason = `${verdict.reason} The upload finished after that, so the file was not kept.`;
+				await upload.update({ state: 'refused', refusalCode: 'check-closed', reason }, { transaction });
+				await audit({ action: 'photo.refused', entityType: 'photo_upload', entityId: upload.id, actorId: upload.uploaderId, after: { fileName: upload.fileName, code: 'check-closed', reason, checkState: check?.state ?? null } }, transaction);
+				return { ok: false, reason };
+			}
+		}
+		await upload.update({ finishedAt: at }, { transaction });
+		return { ok: true };
+	});
 }
 
 export async function markCancelled(uploadId: string, user: SignedInUser): Promise<void> {
