@@ -45,7 +45,7 @@ describe('photographs on a condition check', () => {
 
 		// The photo page shows the hash and zooms through the tiles.
 		await page.locator('ul[aria-label=Photographs] a').first().click();
-		await page.getByText('SHA-256').waitFor();
+		await page.getByText('SHA-256', { exact: true }).waitFor();
 		await page.getByRole('button', { name: 'Zoom to full resolution' }).click();
 		await expect.poll(() => page.locator('[aria-label$="zoomable"] img').count()).toBeGreaterThan(0);
 		await page.screenshot({ path: screenshotPath('photo-page'), fullPage: true });
