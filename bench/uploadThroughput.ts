@@ -4,7 +4,7 @@
 // that streams a PUT body to a file, fed by a streaming http.request PUT of the same file. The photo
 // worker is not started: what is measured is tus accepting the bytes. Prints MB/s (10^6 bytes a
 // second) and ratios. Run: `npm run bench -- upload`. Settings: BENCH_UPLOAD_MB (500),
-// BENCH_UPLOAD_REPEATS (5), BENCH_SERVER_LOG=1 shows the app's log.
+// BENCH_UPLOAD_REPEATS (7), BENCH_SERVER_LOG=1 shows the app's log.
 import crypto from 'node:crypto';
 import fs from 'node:fs';
 import fsp from 'node:fs/promises';
@@ -25,7 +25,7 @@ import { emitPart, median, ratio, table } from './lib/report.ts';
 
 const root = path.resolve(import.meta.dirname, '..');
 const SIZE = Number(process.env.BENCH_UPLOAD_MB ?? 500) * 1e6;
-const REPEATS = Math.max(3, Number(process.env.BENCH_UPLOAD_REPEATS ?? 5));
+const REPEATS = Math.max(3, Number(process.env.BENCH_UPLOAD_REPEATS ?? 7));
 const CHUNK = 8 * 1024 * 1024;
 const PER_REQUEST = 50;
 const log = (m: string) => console.log(`[upload] ${m}`);
