@@ -12,6 +12,7 @@ import http from 'node:http';
 import os from 'node:os';
 import path from 'node:path';
 import { pipeline } from 'node:stream/promises';
+import { spawnSync } from 'node:child_process';
 import * as tus from 'tus-js-client';
 import { freePort, removeCluster, startCluster } from '../db/cluster.mjs';
 import { ensureBuild } from '../scripts/lib/build.mjs';
@@ -101,6 +102,16 @@ function peakRssMb(pid: number | undefined): number | null {
 	}
 }
 
+const CLK_TCK = Number(spawnSync('getconf', ['CLK_TCK'], { encoding: 'utf8' }).stdout.trim()) || 100;
+
+/** CPU seconds (user + system) a process has used so far, from /proc/<pid>/stat. */
+function cpuSeconds(pid: number | undefined): number {
+	if (!pid) return Number.NaN;
+	// Fields after the command name (which is in parentheses and may hold spaces): utime is the 12th, stime the 13th.
+	const after = fs.readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ').pop()!.split(' ');
+	return (Number(after[11]) + Number(after[12])) / CLK_TCK;
+}
+
 let app: Service | undefined;
 let plain: Service | undefined;
 let smtp: Awaited<ReturnType<typeof startFakeSmtp>> | undefined;
@@ -183,23 +194,42 @@ try {
 	const dropPlain = async () => {
 		for (const f of await fsp.readdir(plainDir)) await fsp.rm(path.join(plainDir, f), { force: true });
 	};
-	const cases: { name: string; run: (f: string) => Promise<void> }[] = [
-		{ name: 'plain PUT → file (**baseline**)', run: async (f) => (await plainPut(f, plainPort), dropPlain()) },
-		{ name: 'tus, one PATCH (chunkSize unlimited)', run: async (f) => dropIncoming(await tusUpload(f, { ...o, chunkSize: Infinity })) },
-		{ name: 'tus, 8 MiB chunks', run: async (f) => dropIncoming(await tusUpload(f, { ...o, chunkSize: CHUNK })) },
+	const cases: { name: string; server: Service; run: (f: string) => Promise<void> }[] = [
+		{ name: 'plain PUT → file (**baseline**)', server: plain, run: async (f) => (await plainPut(f, plainPort), dropPlain()) },
+		{ name: 'tus, one PATCH (chunkSize unlimited)', server: app, run: async (f) => dropIncoming(await tusUpload(f, { ...o, chunkSize: Infinity })) },
+		{ name: 'tus, 8 MiB chunks', server: app, run: async (f) => dropIncoming(await tusUpload(f, { ...o, chunkSize: CHUNK })) },
 	];
 	// Warm-up: connections, JIT, pg-boss's first start (its schema) in the app.
 	for (const c of cases) await c.run(warm);
 	const rates = new Map<string, number[]>(cases.map((c) => [c.name, []]));
+	// CPU seconds per run, of the receiving server and of this (the sending) process: on a small
+	// machine the throughput of a CPU-bound path depends on what else runs, its CPU cost does not.
+	const serverCpu = new Map<string, number[]>(cases.map((c) => [c.name, []]));
+	const clientCpu = new Map<string, number[]>(cases.map((c) => [c.name, []]));
 	for (let r = 0; r < REPEATS; r++) {
 		for (const c of cases) {
+			const cpu0 = cpuSeconds(c.server.pid);
+			const client0 = process.cpuUsage();
 			const t = performance.now();
 			await c.run(file);
 			const s = (performance.now() - t) / 1000;
+			const client = process.cpuUsage(client0);
+			serverCpu.get(c.name)!.push(cpuSeconds(c.server.pid) - cpu0);
+			clientCpu.get(c.name)!.push((client.user + client.system) / 1e6);
 			rates.get(c.name)!.push(SIZE / 1e6 / s);
 			log(`${c.name} #${r + 1}: ${(SIZE / 1e6 / s).toFixed(0)} MB/s (${s.toFixed(2)} s)`);
 		}
 	}
+	const cpuBase = median(serverCpu.get(cases[0]!.name)!);
+	const clientBase = median(clientCpu.get(cases[0]!.name)!);
+	const cpuTable = table(
+		['', 'server CPU (s)', '× baseline', 'client CPU (s)', '× baseline'],
+		cases.map((c) => {
+			const sv = median(serverCpu.get(c.name)!);
+			const cl = median(clientCpu.get(c.name)!);
+			return [c.name, sv.toFixed(2), ratio(sv, cpuBase), cl.toFixed(2), ratio(cl, clientBase)];
+		}),
+	);
 	const base = median(rates.get(cases[0]!.name)!);
 	const rows = cases.map((c) => {
 		const v = rates.get(c.name)!;
@@ -261,6 +291,10 @@ try {
 			`A ${(SIZE / 1e6).toFixed(0)} MB file (random bytes) sent over loopback to the production build (\`node dist/server/entry.mjs\`: Astro, the session check in the middleware, @tus/server with FileStore into MENISCUS_UPLOADS_DIR), signed in as the demo conservator, by tus-js-client reading the file as a stream. Baseline in the same run: a minimal Node \`http\` server in its own process streaming a PUT body to a file with \`stream.pipeline\`, fed by a streaming \`http.request\` PUT of the same file. Time runs from the first request to the last response (for tus: the creating POST to the last PATCH's 204). Medians of ${REPEATS}, runs interleaved; MB = 10^6 bytes. Target from the issue: tus at or above 0.7× the plain PUT.`,
 			'',
 			table(['', 'MB/s (median)', 'runs (MB/s)', '× baseline', 'target ≥ 0.7×'], rows),
+			'',
+			`CPU time per ${(SIZE / 1e6).toFixed(0)} MB upload (medians; user + system, from /proc for the server and process.cpuUsage() for the client, which is this process). With ${os.availableParallelism()} cores shared by client, server and the kernel, a path that needs more CPU per byte loses throughput whenever anything else runs:`,
+			'',
+			cpuTable,
 			'',
 			`Fixed cost of one request (medians of ${PER_REQUEST}, same run): the ${chunks} PATCHes of the 8 MiB case pay it ${chunks - 1} times more than the single PATCH, about ${(((chunks - 1) * patchMs) / 1000).toFixed(2)} s at ${patchMs.toFixed(1)} ms each.`,
 			'',
