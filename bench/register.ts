@@ -1,7 +1,7 @@
 // Register query at collection scale: a throwaway PostgreSQL with 10,000 invented specimens, then
 // the register's first page under the common views, against a baseline measured in the same run
 // (one round trip `SELECT 1`, and `SELECT count(*)` over the table). Prints medians and p95 in ms
-// and ratios to the baseline. Run: `npm run bench`.
+// and ratios to the baseline. Run: `npm run bench -- register` (or all benchmarks: `npm run bench`).
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -11,6 +11,7 @@ import { migrateUp } from '../db/migrate.ts';
 import { seedDemo } from '../db/seeders/demo.ts';
 import { insertGenerated } from '../db/seeders/generated.ts';
 import { RegisterQuerySchema } from '../src/lib/specimen/query.ts';
+import { emitPart, table } from './lib/report.ts';
 
 const N = Number(process.env.BENCH_SPECIMENS ?? 10_000);
 const RUNS = Number(process.env.BENCH_RUNS ?? 40);
@@ -61,6 +62,16 @@ try {
 	for (const [name, r] of results) {
 		console.log(`${name.padEnd(40)} ${r.median.toFixed(2).padStart(8)} ${r.p95.toFixed(2).padStart(8)} ${(r.median / base).toFixed(2).padStart(10)}`);
 	}
+	emitPart(
+		[
+			'## Register query at collection scale',
+			'',
+			`${N.toLocaleString('en-GB')} invented specimens in a throwaway PostgreSQL; the register's first page under the common views, ${RUNS} runs each after 3 warm-up runs. Baseline in the same run: \`SELECT count(*)\` over the table (and one round trip, \`SELECT 1\`).`,
+			'',
+			table(['query', 'median (ms)', 'p95 (ms)', '× count(*)'], results.map(([name, r]) => [name, r.median.toFixed(2), r.p95.toFixed(2), `${(r.median / base).toFixed(2)}×`])),
+		].join('\n'),
+		{ print: false },
+	);
 	await seq.close();
 	const { closeDb } = await import('../src/lib/server/db.ts');
 	await closeDb();
