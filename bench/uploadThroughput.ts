@@ -23,6 +23,7 @@ import { migrateUp } from '../db/migrate.ts';
 import { seedDemo } from '../db/seeders/demo.ts';
 import { startFakeSmtp } from '../src/lib/server/mail/fakeSmtp.ts';
 import { emitPart, median, ratio, table } from './lib/report.ts';
+import { UPLOAD_CHUNK_BYTES } from '../src/lib/photos/uploadPolicy.ts';
 
 const root = path.resolve(import.meta.dirname, '..');
 const SIZE = Number(process.env.BENCH_UPLOAD_MB ?? 500) * 1e6;
@@ -198,6 +199,8 @@ try {
 		{ name: 'plain PUT → file (**baseline**)', server: plain, run: async (f) => (await plainPut(f, plainPort), dropPlain()) },
 		{ name: 'tus, one PATCH (chunkSize unlimited)', server: app, run: async (f) => dropIncoming(await tusUpload(f, { ...o, chunkSize: Infinity })) },
 		{ name: 'tus, 8 MiB chunks', server: app, run: async (f) => dropIncoming(await tusUpload(f, { ...o, chunkSize: CHUNK })) },
+		// What the browser's uploader sends (src/lib/photos/uploadPolicy.ts).
+		{ name: `tus, ${UPLOAD_CHUNK_BYTES / 1024 / 1024} MiB chunks (the uploader's setting)`, server: app, run: async (f) => dropIncoming(await tusUpload(f, { ...o, chunkSize: UPLOAD_CHUNK_BYTES })) },
 	];
 	// Warm-up: connections, JIT, pg-boss's first start (its schema) in the app.
 	for (const c of cases) await c.run(warm);
