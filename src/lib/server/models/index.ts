@@ -9,18 +9,19 @@ import { OutgoingMail } from './OutgoingMail.ts';
 import { Photo } from './Photo.ts';
 import { PhotoDerivative } from './PhotoDerivative.ts';
 import { PhotoUpload } from './PhotoUpload.ts';
+import { PhotoMarkLayer } from './PhotoMarkLayer.ts';
 import { Specimen } from './Specimen.ts';
 import { StorageLocation } from './StorageLocation.ts';
 import { User } from './User.ts';
 import { UserSession } from './UserSession.ts';
 
 export type { TokenPurpose } from './AuthToken.ts';
-export { AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Photo, PhotoDerivative, PhotoUpload, Specimen, StorageLocation, User, UserSession };
+export { AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Photo, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, User, UserSession };
 export type { DerivativeKind } from './PhotoDerivative.ts';
 
 /** Binds every model to one connection and declares the associations. */
 export function initModels(sequelize: Sequelize): void {
-	for (const m of [AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Photo, PhotoDerivative, PhotoUpload, Specimen, StorageLocation, User, UserSession]) {
+	for (const m of [AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Photo, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, User, UserSession]) {
 		m.initModel(sequelize);
 	}
 	Specimen.belongsTo(StorageLocation, { foreignKey: 'storageLocationId', as: 'location' });
