@@ -29,6 +29,8 @@ export async function up({ context: qi }: Ctx): Promise<void> {
 			`ALTER TABLE mark_layers ADD CONSTRAINT mark_layers_version_check CHECK (version >= 0 AND mark_count >= 0);
 			 CREATE FUNCTION mark_layers_frozen() RETURNS trigger AS $$
 			 BEGIN
+			   -- The demo seeder writes the marks of checks it creates already approved (SET LOCAL).
+			   IF current_setting('meniscus.seeding', true) = 'on' THEN RETURN COALESCE(NEW, OLD); END IF;
 			   IF EXISTS (SELECT 1 FROM photos p JOIN condition_checks c ON c.id = p.check_id
 			              WHERE p.id = COALESCE(NEW.photo_id, OLD.photo_id) AND c.state = 'approved') THEN
 			     RAISE EXCEPTION 'the marks of a photograph in an approved check cannot be changed';

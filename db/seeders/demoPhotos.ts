@@ -8,12 +8,15 @@ import { ensureDirs } from '../../src/lib/server/photos/storage.ts';
 import { incomingFile } from '../../src/lib/server/photos/incoming.ts';
 import { ingestUpload } from '../../src/lib/server/photos/ingest.ts';
 import { stageForReason } from '../../src/lib/photos/uploadPolicy.ts';
+import type { Grade, Part } from '../../src/lib/check/vocabulary.ts';
+import { demoLayer } from './demoMarks.ts';
 
 /**
  * Photographs for the demo checks, drawn rather than photographed (db/seeders/photos/drawJar.ts):
  * each check gets a front view of its jar at the fluid level that check recorded, the fluid
  * darkening with the years, a scale bar and a grey card in frame; the latest check of some jars
- * also gets a view of the lid. They enter exactly as an upload does (an upload record, the bytes in
+ * also gets a view of the lid. Each front view carries marks (demoMarks.ts): the scale bar, a grey
+ * reference, the levels and the damage its check found. They enter exactly as an upload does (an upload record, the bytes in
  * incoming/, then the worker's own ingest), so the demo shows the real pipeline's results.
  * Needs DATABASE_URL and MENISCUS_UPLOADS_DIR set for the server modules.
  */
@@ -30,6 +33,7 @@ interface CheckRow {
 	reason: string;
 	examiner_id: string;
 	level_mm: number | null;
+	parts: Record<Part, { grade: Grade | null; terms: string[]; note: string }>;
 	n: number;
 	of: number;
 }
@@ -67,7 +71,7 @@ export async function seedDemoPhotos(sequelize: Sequelize, opts: { parallel?: nu
 	ensureDirs();
 	const rows = await sequelize.query<CheckRow>(
 		`SELECT c.id AS check_id, s.id AS specimen_id, s.object_number, s.title, s.preservative_kind, s.container_shape, s.seal_type,
-		        s.inner_height_mm::float AS inner_height_mm, c.checked_on::text AS checked_on, c.reason, c.examiner_id, (c.fluid->>'levelMm')::float AS level_mm,
+		        s.inner_height_mm::float AS inner_height_mm, c.checked_on::text AS checked_on, c.reason, c.examiner_id, (c.fluid->>'levelMm')::float AS level_mm, c.parts,
 		        row_number() OVER (PARTITION BY s.id ORDER BY c.checked_on) AS n, count(*) OVER (PARTITION BY s.id) AS of
 		 FROM condition_checks c JOIN specimens s ON s.id = c.specimen_id ORDER BY s.object_number, c.checked_on`,
 		{ type: QueryTypes.SELECT },
@@ -84,7 +88,7 @@ export async function seedDemoPhotos(sequelize: Sequelize, opts: { parallel?: nu
 		const ageYears = (Date.parse(r.checked_on) - Date.parse(first.get(r.specimen_id)!)) / (365.25 * 86_400_000) + (seed % 5);
 		const fill = r.level_mm !== null && r.inner_height_mm > 0 ? r.level_mm / r.inner_height_mm : 0.9;
 		const hour = 9 + (seed % 7);
-		const { jpeg } = await renderJarPhoto({
+		const { jpeg, truth } = await renderJarPhoto({
 			seed,
 			shape: shapeOf(r.container_shape),
 			silhouette: silhouetteOf(r.title),
@@ -118,6 +122,17 @@ export async function seedDemoPhotos(sequelize: Sequelize, opts: { parallel?: nu
 		await sequelize.query(`UPDATE photo_uploads SET created_at = finished_at WHERE id = :id`, { replacements: { id } });
 		const outcome = await ingestUpload(id);
 		if (outcome.state !== 'recorded') throw new Error(`demo photo ${id} not recorded: ${JSON.stringify(outcome)}`);
+		if (view === 'front') {
+			const layer = demoLayer(truth, r.parts, r.examiner_id, new Date(`${r.checked_on}T${String(hour + 1).padStart(2, '0')}:00:00Z`).toISOString());
+			await sequelize.transaction(async (transaction) => {
+				// Many demo checks are created already approved; the seeder may still write their marks.
+				await sequelize.query(`SET LOCAL meniscus.seeding = 'on'`, { transaction });
+				await sequelize.query(`INSERT INTO mark_layers (photo_id, layer, mark_count, version, updated_by, created_at, updated_at) VALUES (:photoId, :layer, :n, 1, :by, :at, :at)`, {
+					replacements: { photoId: outcome.photoId, layer: JSON.stringify(layer), n: layer.marks.length, by: r.examiner_id, at: layer.marks[0]!.createdAt },
+					transaction,
+				});
+			});
+		}
 	};
 	// A small pool: rendering and ingesting are CPU-bound, two at a time suits the usual two cores.
 	const queue = [...jobs];

@@ -48,3 +48,21 @@ describe('the demo photographs', () => {
 		expect(rows.filter((r) => r.view === 'front').length).toBeGreaterThanOrEqual(30);
 	});
 });
+
+describe('the demo marks', () => {
+	it('map every demo front view: scale bar over the ruler, grey reference, levels, and the damage its check found', async () => {
+		const rows = await db().query<{ layer: { marks: { kind: string; part?: string; lengthMm?: number }[] }; parts: Record<string, { grade: string | null; terms: string[] }> }>(
+			`SELECT m.layer, c.parts FROM mark_layers m JOIN photos p ON p.id = m.photo_id JOIN condition_checks c ON c.id = p.check_id
+			 JOIN specimens s ON s.id = p.specimen_id WHERE s.object_number LIKE 'STC.%' AND p.view = 'front' AND p.file_name LIKE s.object_number || ' %'`,
+			{ type: QueryTypes.SELECT },
+		);
+		expect(rows.length).toBeGreaterThanOrEqual(30);
+		for (const { layer, parts } of rows) {
+			const kinds = layer.marks.map((m) => m.kind);
+			expect(kinds).toEqual(expect.arrayContaining(['scale', 'grey', 'level']));
+			expect(layer.marks.find((m) => m.kind === 'scale')?.lengthMm).toBe(100);
+			const damaged = Object.entries(parts).filter(([, p]) => p.grade && p.grade !== 'good' && p.terms.length > 0).map(([part]) => part);
+			expect(layer.marks.filter((m) => m.part).map((m) => m.part).sort()).toEqual(damaged.sort());
+		}
+	});
+});

@@ -51,6 +51,10 @@ export interface JarPhotoTruth {
 	fluidLineY: number;
 	innerBaseY: number;
 	specimenTopY: number;
+	/** The rim under the lid, where the seal runs (front centre), and the jar's centre line and half width. */
+	rimY: number;
+	centreX: number;
+	halfWidth: number;
 	/** Outer bounding box of jar and lid; in the detail view it runs past the frame. */
 	jar: { x: number; y: number; w: number; h: number };
 }
@@ -980,6 +984,9 @@ function truthOf(sc: Scene): JarPhotoTruth {
 		fluidLineY: sc.jar.fluidLineY,
 		innerBaseY: r2(sc.jar.innerBaseY),
 		specimenTopY: sc.jar.specimenTopY,
+		rimY: r2(sc.jar.rimY),
+		centreX: r2(sc.jar.cx),
+		halfWidth: r2(sc.jar.rx),
 		jar: { ...sc.jarBox },
 	};
 }
