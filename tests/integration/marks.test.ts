@@ -96,6 +96,7 @@ describe('a mark layer', () => {
 		['a point outside the photograph', (l: MarkLayer) => ({ ...l, marks: [{ ...l.marks[2]!, at: [5000, 10] }] }), /outside the 1200 × 900 photograph/],
 		['two marks with one id', (l: MarkLayer) => ({ ...l, marks: [l.marks[0]!, { ...l.marks[1]!, id: l.marks[0]!.id }] }), /share the id/],
 		['an outline of two points', (l: MarkLayer) => ({ ...l, marks: [{ ...l.marks[1]!, points: [[1, 1], [2, 2]] }] }), /at least 3 points/],
+		['an outline that crosses itself', (l: MarkLayer) => ({ ...l, marks: [{ ...l.marks[1]!, points: [[400, 400], [520, 520], [520, 400], [400, 520]] }] }), /crosses itself/],
 		['a comment pinned to no mark', (l: MarkLayer) => ({ ...l, comments: [{ id: 'c1', markId: 'nowhere', authorId: conservatorId, text: 'x', createdAt: t }] }), /pinned to a mark/],
 		['a new mark credited to someone else', (l: MarkLayer) => ({ ...l, marks: [...l.marks, { ...l.marks[2]!, id: 'forged', authorId: reviewerId }] }), /name you as its author/],
 		['an unknown field', (l: MarkLayer) => ({ ...l, owner: 'me' }), /not acceptable/],

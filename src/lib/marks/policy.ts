@@ -1,6 +1,7 @@
 import type { Role } from '../auth/roles.ts';
 import type { CheckState, Part } from '../check/vocabulary.ts';
 import { isDamage, type Mark, type MarkLayer, type Point } from './schema.ts';
+import { validOutline } from './geometry.ts';
 
 /**
  * Who may change what in a photo's mark layer. Conservators map damage while the photo's check can
@@ -79,6 +80,10 @@ export function markPoints(m: Mark): Point[] {
 export function checkMarkContent(marks: Mark[], photo: { width: number; height: number }, vocabulary: Record<Part, readonly string[]>): ChangeVerdict {
 	for (const m of marks) {
 		if (isDamage(m) && !vocabulary[m.part].includes(m.term)) return { ok: false, status: 400, reason: `“${m.term}” is not a damage term of the ${m.part}; choose one from its list.` };
+		if (m.kind === 'outline') {
+			const shape = validOutline(m.points);
+			if (!shape.ok) return { ok: false, status: 400, reason: `Outline ${m.id}: ${shape.reason}` };
+		}
 		for (const [x, y] of markPoints(m)) {
 			if (x < 0 || y < 0 || x > photo.width || y > photo.height) return { ok: false, status: 400, reason: `Mark ${m.id} has a point (${Math.round(x)}, ${Math.round(y)}) outside the ${photo.width} × ${photo.height} photograph.` };
 		}
