@@ -59,6 +59,9 @@ function Detail({ photo }: { photo: PhotoRecord }) {
 			</header>
 			<section aria-label="The photograph" className="space-y-2">
 				<div className="flex items-center gap-3">
+					<a className="btn-primary" href={`/photos/${photo.id}/marks`}>
+						Condition map
+					</a>
 					<button type="button" className="btn-secondary" aria-pressed={zoom} onClick={() => setZoom(!zoom)}>
 						{zoom ? 'Show the screen-size copy' : 'Zoom to full resolution'}
 					</button>

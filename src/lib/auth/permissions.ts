@@ -78,6 +78,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/specimens/[id]/photos': { GET: 'signed-in' },
 	'/api/checks/[id]/photos': { GET: 'signed-in' },
 	'/photos/[id]': { GET: 'signed-in' },
+	'/photos/[id]/marks': { GET: 'signed-in' },
 	// Administration.
 	'/admin/users': { GET: ADMIN },
 	'/admin/mailbox': { GET: ADMIN },

@@ -1,0 +1,108 @@
+import { Circle, Group, Line, Rect, Text } from 'react-konva';
+import type { Mark } from '../../lib/marks/schema.ts';
+import type { DraftMark, Preview } from '../../lib/marks/tools/effects.ts';
+import { CASING, HALO, LEVEL_LABEL, MEASURE_STYLE, PART_STYLE, SEVERITY_STYLE } from '../../lib/marks/palette.ts';
+
+/**
+ * One mark drawn on the photo in its style (palette.ts): colour by part, weight and dash by
+ * severity, the part's letter code beside it so colour is never the only cue, a black casing
+ * under every stroke and a white halo under severe ones. Drawn in photo pixels inside the view's
+ * transform; widths, dashes and text are divided by the zoom so they stay the same on screen.
+ */
+type Drawable = Mark | (DraftMark & { id?: string });
+
+interface Style {
+	colour: string;
+	width: number;
+	dash: number[];
+	halo: boolean;
+	code: string;
+}
+
+function styleOf(m: Drawable): Style {
+	if ('part' in m && m.part) {
+		const s = SEVERITY_STYLE[m.severity];
+		return { colour: PART_STYLE[m.part].colour, width: s.strokeWidth, dash: s.dash, halo: s.halo, code: PART_STYLE[m.part].code };
+	}
+	const k = m.kind as keyof typeof MEASURE_STYLE;
+	const s = MEASURE_STYLE[k] ?? MEASURE_STYLE.level;
+	const code = m.kind === 'control' && 'n' in m ? `#${m.n}` : m.kind === 'level' && 'level' in m && m.level ? LEVEL_LABEL[m.level] : s.code;
+	return { colour: s.colour, width: s.strokeWidth, dash: s.dash, halo: false, code };
+}
+
+/** Flat [x0, y0, x1, y1, …] for Konva, and where the code label goes. */
+function geometry(m: Drawable): { points: number[]; closed: boolean; anchor: [number, number]; pin?: [number, number] } {
+	switch (m.kind) {
+		case 'outline':
+			return { points: m.points.flat(), closed: true, anchor: m.points[0]! };
+		case 'path':
+			return { points: m.points.flat(), closed: false, anchor: m.points[m.points.length - 1]! };
+		case 'box':
+		case 'grey':
+			return { points: [m.x, m.y, m.x + m.w, m.y, m.x + m.w, m.y + m.h, m.x, m.y + m.h], closed: true, anchor: [m.x, m.y] };
+		case 'scale':
+		case 'level':
+			return { points: [...m.from, ...m.to], closed: false, anchor: m.to };
+		case 'pin':
+		case 'control':
+			return { points: [], closed: false, anchor: m.at, pin: m.at };
+	}
+}
+
+export function MarkShape({ mark, zoom, selected, dim }: { mark: Drawable; zoom: number; selected?: boolean; dim?: boolean }) {
+	const s = styleOf(mark);
+	const g = geometry(mark);
+	const k = 1 / zoom;
+	const dash = s.dash.map((d) => d * k);
+	const stroke = (colour: string, width: number) =>
+		g.pin ? null : <Line points={g.points} closed={g.closed} stroke={colour} strokeWidth={width * k} dash={dash.length ? dash : undefined} lineCap="round" lineJoin="round" listening={false} />;
+	const r = 7 * k;
+	return (
+		<Group opacity={dim ? 0.35 : 1} listening={false}>
+			{selected && stroke('#ffffff', s.width + 10)}
+			{s.halo && stroke(HALO.colour, s.width + HALO.width)}
+			{stroke(CASING.colour, s.width + CASING.width)}
+			{stroke(s.colour, s.width)}
+			{g.pin && (
+				<>
+					{selected && <Circle x={g.pin[0]} y={g.pin[1]} radius={r + 5 * k} stroke="#ffffff" strokeWidth={3 * k} />}
+					<Circle x={g.pin[0]} y={g.pin[1]} radius={r} fill={s.colour} stroke={CASING.colour} strokeWidth={2 * k} />
+				</>
+			)}
+			{mark.kind === 'scale' &&
+				[mark.from, mark.to].map(([x, y], i) => <Line key={i} points={[x, y - 10 * k, x, y + 10 * k]} stroke={s.colour} strokeWidth={s.width * k} />)}
+			<Text x={g.anchor[0] + 9 * k} y={g.anchor[1] - 9 * k} text={s.code} fontSize={13 * k} fontStyle="bold" fill={s.colour} stroke={CASING.colour} strokeWidth={3 * k} fillAfterStrokeEnabled />
+		</Group>
+	);
+}
+
+/** The gesture under way: the tool's preview. */
+export function PreviewShape({ preview, zoom }: { preview: Preview; zoom: number }) {
+	const k = 1 / zoom;
+	switch (preview.kind) {
+		case 'polyline': {
+			const pts = [...preview.points, ...(preview.rubber ? [preview.rubber] : [])];
+			return (
+				<Group listening={false}>
+					<Line points={pts.flat()} closed={preview.closed} stroke="#000" strokeWidth={4 * k} />
+					<Line points={pts.flat()} closed={preview.closed} stroke="#fff" strokeWidth={2 * k} dash={[6 * k, 4 * k]} />
+					{preview.points.map(([x, y], i) => (
+						<Circle key={i} x={x} y={y} radius={(i === 0 && preview.closes ? 8 : 4) * k} fill={i === 0 && preview.closes ? '#fff' : '#000'} stroke="#fff" strokeWidth={1.5 * k} />
+					))}
+				</Group>
+			);
+		}
+		case 'draft':
+			return <MarkShape mark={preview.mark} zoom={zoom} />;
+		case 'band':
+			return <Rect x={preview.x} y={preview.y} width={preview.w} height={preview.h} stroke="#fff" strokeWidth={1.5 * k} dash={[5 * k, 4 * k]} fill="rgba(255,255,255,0.08)" listening={false} />;
+		case 'marks':
+			return (
+				<>
+					{preview.marks.map((m) => (
+						<MarkShape key={m.id} mark={m} zoom={zoom} selected />
+					))}
+				</>
+			);
+	}
+}
