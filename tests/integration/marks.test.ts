@@ -158,3 +158,35 @@ describe('the marks of an approved check', () => {
 		await expect(db().query(`INSERT INTO mark_layers (photo_id, layer) VALUES (:id, '{"schemaVersion":1,"marks":[],"comments":[]}') ON CONFLICT (photo_id) DO UPDATE SET layer = EXCLUDED.layer`, { replacements: { id: row!.id } })).rejects.toThrow(/approved check cannot be changed/);
 	});
 });
+
+describe('Web Annotation export and import', () => {
+	it('exports the layer as an AnnotationPage on the IIIF image and imports it back unchanged', async () => {
+		const before = await get(conservator);
+		const res = await call(`/api/photos/${photoId}/annotations`, { cookie: curator });
+		expect(res.status).toBe(200);
+		expect(res.headers.get('content-type')).toMatch(/application\/ld\+json/);
+		const page = await res.json();
+		// W3C Web Annotation Data Model §3.1: @context, id, type, target (and body or motivation).
+		expect(page.type).toBe('AnnotationPage');
+		expect(page.items.length).toBe(before.layer.marks.length + before.layer.comments.length);
+		for (const a of page.items) {
+			expect(a['@context'] ?? page['@context']).toBeDefined();
+			expect(a.type).toBe('Annotation');
+			expect(a.id).toEqual(expect.any(String));
+			expect(a.target).toBeDefined();
+		}
+		const svgTarget = page.items.find((a: { target: { selector?: { type: string } } }) => a.target.selector?.type === 'SvgSelector');
+		expect(svgTarget.target.source).toMatch(new RegExp(`/api/photos/${photoId}/tiles$`));
+		const back = await call(`/api/photos/${photoId}/annotations`, { cookie: conservator, json: { version: before.version, page } });
+		expect(back.status, await back.clone().text()).toBe(200);
+		const after = await get(conservator);
+		expect(after.layer).toEqual(before.layer);
+		expect(after.version).toBe(before.version + 1);
+	});
+
+	it('refuses a document that is not an annotation page', async () => {
+		const { version } = await get(conservator);
+		const res = await call(`/api/photos/${photoId}/annotations`, { cookie: conservator, json: { version, page: { hello: 'world' } } });
+		expect(res.status).toBe(400);
+	});
+});

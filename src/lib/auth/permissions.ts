@@ -75,6 +75,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/photos/[id]/tiles/[...path]': { GET: 'signed-in' },
 	// Marks on a photo: conservators draw, reviewers comment (checked per layer); everyone reads.
 	'/api/photos/[id]/marks': { GET: 'signed-in', PUT: ['conservator', 'reviewer'] },
+	'/api/photos/[id]/annotations': { GET: 'signed-in', POST: CONSERVATOR },
 	'/api/specimens/[id]/photos': { GET: 'signed-in' },
 	'/api/checks/[id]/photos': { GET: 'signed-in' },
 	'/photos/[id]': { GET: 'signed-in' },

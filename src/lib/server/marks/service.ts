@@ -4,7 +4,8 @@ import { ConditionCheck, Photo, PhotoMarkLayer } from '../models/index.ts';
 import { audit } from '../audit.ts';
 import { vocabulary } from '../checks/settings.ts';
 import type { SignedInUser } from '../auth/lucia.ts';
-import { emptyLayer, MarkLayerSchema, type MarkLayer } from '../../marks/schema.ts';
+import { emptyLayer, type MarkLayer } from '../../marks/schema.ts';
+import { migrateLayer } from '../../marks/migrate.ts';
 import { changedMarks, checkLayerChange, checkMarkContent, layerMode, type LayerMode } from '../../marks/policy.ts';
 import type { CheckState } from '../../check/vocabulary.ts';
 
@@ -47,7 +48,8 @@ function answer(photoId: string, row: PhotoMarkLayer | null, found: Awaited<Retu
 	const { mode, reason } = layerMode(user.role, found.checkState);
 	return {
 		photoId,
-		layer: row ? MarkLayerSchema.parse(row.layer) : emptyLayer(),
+		// Stored layers of older schema versions are brought forward on reading.
+		layer: row ? migrateLayer(row.layer) : emptyLayer(),
 		version: row?.version ?? 0,
 		updatedAt: row?.updatedAt.toISOString() ?? null,
 		updatedBy: row?.updatedBy ?? null,
