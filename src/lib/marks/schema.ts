@@ -92,6 +92,15 @@ export const MarkLayerSchema = z
 			if (!seen.has(c.markId)) ctx.addIssue({ code: 'custom', path: ['comments', i, 'markId'], message: 'A comment must be pinned to a mark of this layer.' });
 		});
 		if (layer.marks.filter((m) => m.kind === 'scale').length > 1) ctx.addIssue({ code: 'custom', path: ['marks'], message: 'A photo has one scale bar.' });
+		const numbers = new Set<number>();
+		layer.marks.forEach((m, i) => {
+			// Registration pairs control points by number: two with one number would pair wrongly.
+			if (m.kind === 'control') {
+				if (numbers.has(m.n)) ctx.addIssue({ code: 'custom', path: ['marks', i, 'n'], message: `Two control points are numbered ${m.n}.` });
+				numbers.add(m.n);
+			}
+			if (m.kind === 'scale' && m.from[0] === m.to[0] && m.from[1] === m.to[1]) ctx.addIssue({ code: 'custom', path: ['marks', i], message: 'The scale bar needs two different ends.' });
+		});
 	});
 export type MarkLayer = z.infer<typeof MarkLayerSchema>;
 

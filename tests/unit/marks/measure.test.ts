@@ -25,7 +25,8 @@ describe('mmPerPixel', () => {
 
 	it('is null without a scale bar, or when its ends coincide', () => {
 		expect(mmPerPixel(layer(box))).toBeNull();
-		expect(mmPerPixel(layer(scale([5, 5], [5, 5], 10)))).toBeNull();
+		// The schema refuses such a bar; mmPerPixel stays safe for a layer built without it.
+		expect(mmPerPixel({ schemaVersion: 1, marks: [scale([5, 5], [5, 5], 10)], comments: [] })).toBeNull();
 	});
 
 	it('does not depend on the direction the scale bar was drawn', () => {
