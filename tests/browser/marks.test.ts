@@ -56,6 +56,9 @@ describe('the condition map', () => {
 		// (100 px · 100 mm / 300 px)² = 1,111 mm², whatever the zoom.
 		await expect.poll(() => page.getByTestId('mark-list').textContent()).toMatch(/tissue loss · severe|tissue loss · moderate/);
 		await expect.poll(() => page.getByTestId('mark-list').textContent()).toMatch(/1,11\d mm²/);
+		// Choosing a mark in the list selects it and shows its size and handles.
+		await page.getByTestId('mark-list').getByText(/tissue loss/).click();
+		await expect.poll(() => page.getByTestId('selected-size').textContent()).toMatch(/Area .* px² ≈ 1,11\d mm²/);
 		// Not fullPage: resizing the viewport for the shot would refit the canvas.
 		await page.screenshot({ path: screenshotPath('marks-drawn') });
 

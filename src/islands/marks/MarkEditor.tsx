@@ -1,6 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent as ReactKeyboardEvent } from 'react';
-import { Layer, Stage } from 'react-konva';
+import { Layer, Rect, Stage } from 'react-konva';
+import { handles } from '../../lib/marks/tools/shapes.ts';
 import type Konva from 'konva';
 import { QueryRoot } from '../QueryRoot.tsx';
 import { api } from '../../lib/client/api.ts';
@@ -76,6 +77,9 @@ function Editor({ photo, answer, terms, info, userId }: { photo: PhotoRecord; an
 	const layer = history.present;
 	const pan = useRef<{ sx: number; sy: number; x: number; y: number } | null>(null);
 	const spaceDown = useRef(false);
+	// Two fingers on a touch screen zoom about their midpoint (and never draw).
+	const touches = useRef(new Map<number, { x: number; y: number }>());
+	const pinch = useRef<{ d: number } | null>(null);
 
 	// A copy left in this browser by a tab that closed before the server had it.
 	useEffect(() => {
@@ -159,6 +163,7 @@ function Editor({ photo, answer, terms, info, userId }: { photo: PhotoRecord; an
 		const pos = stage?.getPointerPosition();
 		if (!pos || !view) return;
 		const native = e.evt;
+		if (native.pointerType === 'touch' && pinchGesture(type, native.pointerId, pos)) return;
 		// Pan: middle button, or Space held, or any drag while reading.
 		if (type === 'down' && (native.button === 1 || spaceDown.current || (!editable && tool.id !== 'select'))) {
 			pan.current = { sx: pos.x, sy: pos.y, x: view.x, y: view.y };
@@ -184,6 +189,29 @@ function Editor({ photo, answer, terms, info, userId }: { photo: PhotoRecord; an
 		sync.changed(h.present);
 	};
 
+	/** True while two fingers are down: their moves zoom instead of reaching the tool. */
+	const pinchGesture = (type: 'down' | 'move' | 'up', id: number, pos: { x: number; y: number }): boolean => {
+		const t = touches.current;
+		if (type === 'up') {
+			t.delete(id);
+			const was = pinch.current !== null;
+			if (t.size < 2) pinch.current = null;
+			return was;
+		}
+		t.set(id, pos);
+		if (t.size < 2) return false;
+		const [a, b] = [...t.values()] as [{ x: number; y: number }, { x: number; y: number }];
+		const d = Math.hypot(a.x - b.x, a.y - b.y) || 1;
+		if (!pinch.current) {
+			run({ type: 'cancel' });
+			pinch.current = { d };
+		} else {
+			zoomAt(d / pinch.current.d, (a.x + b.x) / 2, (a.y + b.y) / 2);
+			pinch.current.d = d;
+		}
+		return true;
+	};
+
 	const onKey = (e: ReactKeyboardEvent) => {
 		if ((e.target as HTMLElement).closest('input, select, textarea')) return;
 		if (e.key === ' ') {
@@ -196,6 +224,14 @@ function Editor({ photo, answer, terms, info, userId }: { photo: PhotoRecord; an
 		const s = matchShortcut(input);
 		if (!s) return;
 		e.preventDefault();
+		if (s.action === 'nudge' && (selected.length === 0 || !editable)) {
+			const step = (e.shiftKey ? 200 : 60) / (view?.scale ?? 1);
+			const d: Record<string, [number, number]> = { ArrowLeft: [-step, 0], ArrowRight: [step, 0], ArrowUp: [0, -step], ArrowDown: [0, step] };
+			const [dx, dy] = d[e.key] ?? [0, 0];
+			moved.current = true;
+			setView((v) => (v ? { ...v, x: v.x + dx, y: v.y + dy } : v));
+			return;
+		}
 		if (s.to === 'tool') return run(input);
 		if (s.action.startsWith('tool:')) {
 			const id = s.action.slice(5) as ToolId;
@@ -299,6 +335,7 @@ function Editor({ photo, answer, terms, info, userId }: { photo: PhotoRecord; an
 									<MarkShape key={m.id} mark={m} zoom={view.scale} selected={selected.includes(m.id)} />
 								))}
 								{tool.state.preview && <PreviewShape preview={tool.state.preview} zoom={view.scale} />}
+								{editable && selected.length === 1 && !tool.state.preview && <Handles mark={layer.marks.find((m) => m.id === selected[0])} zoom={view.scale} />}
 							</Layer>
 						</Stage>
 					)}
@@ -308,6 +345,7 @@ function Editor({ photo, answer, terms, info, userId }: { photo: PhotoRecord; an
 				</p>
 			</div>
 			<MarkSidebar
+				photoId={photo.id}
 				layer={layer}
 				terms={terms}
 				editable={editable}
@@ -327,6 +365,19 @@ function Editor({ photo, answer, terms, info, userId }: { photo: PhotoRecord; an
 				onComment={(next) => commitLayer(next)}
 			/>
 		</div>
+	);
+}
+
+/** The vertex handles of the one selected mark: drag one to move that point, Alt-click to add or remove. */
+function Handles({ mark, zoom }: { mark: MarkLayer['marks'][number] | undefined; zoom: number }) {
+	if (!mark) return null;
+	const s = 7 / zoom;
+	return (
+		<>
+			{handles(mark).map(([x, y], i) => (
+				<Rect key={i} x={x - s / 2} y={y - s / 2} width={s} height={s} fill="#ffffff" stroke="#000000" strokeWidth={1.5 / zoom} listening={false} />
+			))}
+		</>
 	);
 }
 

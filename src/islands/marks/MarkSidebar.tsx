@@ -19,6 +19,7 @@ export interface DamageChoice {
 }
 
 interface Props {
+	photoId: string;
 	layer: MarkLayer;
 	terms: Record<Part, string[]>;
 	editable: boolean;
@@ -138,6 +139,11 @@ export function MarkSidebar(p: Props) {
 						);
 					})}
 				</ul>
+				<p className="mt-2 text-xs">
+					<a className="text-glass-700 underline" href={`/api/photos/${p.photoId}/annotations`} download={`marks-${p.photoId}.jsonld`}>
+						Download as W3C Web Annotations
+					</a>
+				</p>
 				<p className="mt-2 text-xs text-ink-500">{scale ? `Scale set: ${(1 / scale).toFixed(2)} px per mm. ${MEASUREMENT_CAVEAT}` : 'No scale bar yet: draw one over the ruler in the photo to see sizes in mm.'}</p>
 			</section>
 			<section className="card p-4" aria-label="Legend and visibility">
