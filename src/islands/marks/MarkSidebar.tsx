@@ -133,7 +133,7 @@ export function MarkSidebar(p: Props) {
 							<li key={m.id}>
 								<button type="button" className={`w-full rounded px-2 py-1 text-left hover:bg-ink-50 ${p.selected.includes(m.id) ? 'bg-glass-50 font-semibold' : ''}`} onClick={() => p.onSelect([m.id])}>
 									{KIND_LABEL[m.kind]}: {describe(m)}
-									{size.areaMm2 !== null ? ` · ${formatMm2(size.areaMm2)}` : size.lengthMm !== null && m.kind !== 'scale' ? ` · ${formatMm(size.lengthMm)}` : ''}
+									{size.areaMm2 !== null ? ` · ${formatMm2(size.areaMm2)}` : size.lengthMm !== null && m.kind === 'path' ? ` · ${formatMm(size.lengthMm)}` : ''}
 								</button>
 							</li>
 						);
