@@ -14,6 +14,7 @@ const BENCHMARKS = {
 	register: { file: 'register.ts', what: 'register queries at 10,000 specimens' },
 	photos: { file: 'photoIngest.ts', what: 'photo ingest (24 MP, 60 MP) against ImageMagick' },
 	upload: { file: 'uploadThroughput.ts', what: 'tus upload throughput against a plain PUT' },
+	canvas: { file: 'canvas.ts', what: 'mark canvas: save round trip and pan/zoom frame rate, 1,000 marks against none' },
 } as const;
 type Name = keyof typeof BENCHMARKS;
 const isName = (s: string): s is Name => s in BENCHMARKS;

@@ -13,11 +13,11 @@ import os from 'node:os';
 import path from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import { spawnSync } from 'node:child_process';
-import * as tus from 'tus-js-client';
 import { freePort, removeCluster, startCluster } from '../db/cluster.mjs';
 import { ensureBuild } from '../scripts/lib/build.mjs';
 import { startService, stopService, waitForHttp, type Service } from '../scripts/lib/proc.mjs';
 import { demoPassword } from '../db/seeders/demoPassword.mjs';
+import { signIn, tusUpload } from './lib/appClient.ts';
 import { openSequelize } from '../src/lib/server/db.ts';
 import { migrateUp } from '../db/migrate.ts';
 import { seedDemo } from '../db/seeders/demo.ts';
@@ -51,33 +51,6 @@ async function makeFile(file: string, size: number): Promise<void> {
 	} finally {
 		await h.close();
 	}
-}
-
-function sessionCookie(res: Response): string | null {
-	for (const c of res.headers.getSetCookie()) {
-		const [pair] = c.split(';');
-		if (pair && /session=/.test(pair) && !/=$/.test(pair)) return pair;
-	}
-	return null;
-}
-
-/** tus-js-client from Node, as tests/helpers/photos.ts calls it; resolves with the upload id. */
-function tusUpload(file: string, o: { endpoint: string; origin: string; cookie: string; specimenId: string; chunkSize: number; onChunk?: () => void }): Promise<string> {
-	return new Promise((resolve, reject) => {
-		const upload: tus.Upload = new tus.Upload(fs.createReadStream(file), {
-			endpoint: o.endpoint,
-			uploadSize: fs.statSync(file).size,
-			chunkSize: o.chunkSize,
-			retryDelays: [],
-			metadata: { filename: path.basename(file), filetype: 'image/jpeg', specimenId: o.specimenId, view: 'front', stage: 'as-found' },
-			headers: { cookie: o.cookie, origin: o.origin },
-			storeFingerprintForResuming: false,
-			onChunkComplete: () => o.onChunk?.(),
-			onError: (err) => reject(err),
-			onSuccess: () => resolve(new URL(upload.url!, o.endpoint).pathname.split('/').pop()!),
-		});
-		upload.start();
-	});
 }
 
 /** The baseline's client: one streaming PUT of the file, no buffering. */
@@ -152,14 +125,7 @@ try {
 	log(`PostgreSQL, build and servers ready in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 
 	// Signed in as the demo conservator, the way a browser does it (a form POST with its Origin).
-	const login = await fetch(`${baseUrl}/login`, {
-		method: 'POST',
-		redirect: 'manual',
-		headers: { origin: baseUrl, 'content-type': 'application/x-www-form-urlencoded' },
-		body: new URLSearchParams({ email: 'conservator@example.org', password: demoPassword() }).toString(),
-	});
-	const cookie = sessionCookie(login);
-	if (login.status !== 303 || !cookie) throw new Error(`sign-in failed: ${login.status}`);
+	const cookie = await signIn(baseUrl);
 	const created = await fetch(`${baseUrl}/api/specimens`, {
 		method: 'POST',
 		headers: { origin: baseUrl, cookie, 'content-type': 'application/json' },
