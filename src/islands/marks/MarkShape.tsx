@@ -1,3 +1,4 @@
+import { memo } from 'react';
 import { Circle, Group, Line, Rect, Text } from 'react-konva';
 import type { Mark } from '../../lib/marks/schema.ts';
 import type { DraftMark, Preview } from '../../lib/marks/tools/effects.ts';
@@ -49,7 +50,12 @@ function geometry(m: Drawable): { points: number[]; closed: boolean; anchor: [nu
 	}
 }
 
-export function MarkShape({ mark, zoom, selected, dim }: { mark: Drawable; zoom: number; selected?: boolean; dim?: boolean }) {
+/**
+ * Memoised on its props (the mark object, zoom, selected, dim): a pan or a change to another mark
+ * re-renders the editor, and with 1,000 marks re-rendering every shape each time is what costs
+ * (bench/canvas.ts). Marks are immutable in the layer, so an unchanged mark keeps its object.
+ */
+export const MarkShape = memo(function MarkShape({ mark, zoom, selected, dim }: { mark: Drawable; zoom: number; selected?: boolean; dim?: boolean }) {
 	const s = styleOf(mark);
 	const g = geometry(mark);
 	const k = 1 / zoom;
@@ -74,7 +80,7 @@ export function MarkShape({ mark, zoom, selected, dim }: { mark: Drawable; zoom:
 			<Text x={g.anchor[0] + 9 * k} y={g.anchor[1] - 9 * k} text={s.code} fontSize={13 * k} fontStyle="bold" fill={s.colour} stroke={CASING.colour} strokeWidth={3 * k} fillAfterStrokeEnabled />
 		</Group>
 	);
-}
+});
 
 /** The gesture under way: the tool's preview. */
 export function PreviewShape({ preview, zoom }: { preview: Preview; zoom: number }) {
