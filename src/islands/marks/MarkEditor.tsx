@@ -19,6 +19,7 @@ import { matchShortcut } from '../../lib/marks/tools/shortcuts.ts';
 import { mergeLayers } from '../../lib/marks/merge.ts';
 import type { Part } from '../../lib/check/vocabulary.ts';
 import { MarkShape, PreviewShape } from './MarkShape.tsx';
+import { AllMarks } from './AllMarks.tsx';
 import { TileImage } from './TileImage.tsx';
 import { readPending, useLayerSync } from './useLayerSync.ts';
 import { MarkSidebar, type DamageChoice } from './MarkSidebar.tsx';
@@ -331,9 +332,12 @@ function Editor({ photo, answer, terms, info, userId }: { photo: PhotoRecord; an
 								))}
 							</Layer>
 							<Layer x={-view.x * view.scale} y={-view.y * view.scale} scaleX={view.scale} scaleY={view.scale} listening={false}>
-								{visibleMarks.filter((m) => !previewMarks.has(m.id)).map((m) => (
-									<MarkShape key={m.id} mark={m} zoom={view.scale} selected={selected.includes(m.id)} />
-								))}
+								<AllMarks marks={visibleMarks.filter((m) => !previewMarks.has(m.id))} zoom={view.scale} />
+								{visibleMarks
+									.filter((m) => selected.includes(m.id) && !previewMarks.has(m.id))
+									.map((m) => (
+										<MarkShape key={m.id} mark={m} zoom={view.scale} selected />
+									))}
 								{tool.state.preview && <PreviewShape preview={tool.state.preview} zoom={view.scale} />}
 								{editable && selected.length === 1 && !tool.state.preview && <Handles mark={layer.marks.find((m) => m.id === selected[0])} zoom={view.scale} />}
 							</Layer>

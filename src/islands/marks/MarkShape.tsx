@@ -20,7 +20,7 @@ interface Style {
 	code: string;
 }
 
-function styleOf(m: Drawable): Style {
+export function styleOf(m: Drawable): Style {
 	if ('part' in m && m.part) {
 		const s = SEVERITY_STYLE[m.severity];
 		return { colour: PART_STYLE[m.part].colour, width: s.strokeWidth, dash: s.dash, halo: s.halo, code: PART_STYLE[m.part].code };
@@ -32,7 +32,7 @@ function styleOf(m: Drawable): Style {
 }
 
 /** Flat [x0, y0, x1, y1, …] for Konva, and where the code label goes. */
-function geometry(m: Drawable): { points: number[]; closed: boolean; anchor: [number, number]; pin?: [number, number] } {
+export function geometry(m: Drawable): { points: number[]; closed: boolean; anchor: [number, number]; pin?: [number, number] } {
 	switch (m.kind) {
 		case 'outline':
 			return { points: m.points.flat(), closed: true, anchor: m.points[0]! };
