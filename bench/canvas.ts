@@ -5,22 +5,14 @@
 // are measured in the same run and interleaved with what they are compared with. Run:
 // `npm run bench -- canvas`. Settings: BENCH_CANVAS_SAVES (7), BENCH_CANVAS_RUNS (3),
 // BENCH_CANVAS_SECONDS (4), BENCH_SERVER_LOG=1 shows the app's and the worker's log.
-import fs from 'node:fs';
-import os from 'node:os';
 import path from 'node:path';
 import { chromium, type BrowserContext } from 'playwright-core';
-import { freePort, removeCluster, startCluster } from '../db/cluster.mjs';
-import { ensureBuild } from '../scripts/lib/build.mjs';
-import { startService, stopService, waitForHttp, type Service } from '../scripts/lib/proc.mjs';
-import { demoPassword } from '../db/seeders/demoPassword.mjs';
-import { openSequelize } from '../src/lib/server/db.ts';
-import { migrateUp } from '../db/migrate.ts';
-import { seedDemo } from '../db/seeders/demo.ts';
-import { startFakeSmtp } from '../src/lib/server/mail/fakeSmtp.ts';
 import { DEFAULT_TERMS, PARTS, type Part } from '../src/lib/check/vocabulary.ts';
 import { MARK_SCHEMA_VERSION, MarkLayerSchema, type Mark, type MarkLayer, type Point } from '../src/lib/marks/schema.ts';
 import { emitPart, median, ratio, table } from './lib/report.ts';
 import { signIn, tusUpload } from './lib/appClient.ts';
+import { createSpecimen, startAppStack, type AppStack } from './lib/appStack.ts';
+import { demoPassword } from '../db/seeders/demoPassword.mjs';
 import { testImages } from './lib/testImages.ts';
 
 const root = path.resolve(import.meta.dirname, '..');
@@ -30,12 +22,6 @@ const SECONDS = Math.max(2, Number(process.env.BENCH_CANVAS_SECONDS ?? 4));
 const MARKS = 1000;
 const log = (m: string) => console.log(`[canvas] ${m}`);
 
-const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'meniscus-bench-canvas-'));
-// As root, the postgres OS user must be able to enter the folder (mkdtemp makes it 0700).
-fs.chmodSync(tmp, 0o755);
-const dataDir = path.join(tmp, 'pg', 'data');
-const uploadsDir = path.join(tmp, 'uploads');
-const profileDir = path.join(tmp, 'chromium');
 
 /** mulberry32: the same invented layer every run, so runs measure the same marks. */
 function rng(seed: number): () => number {
@@ -109,36 +95,13 @@ interface FrameRun {
 	zoomText: string;
 }
 
-let app: Service | undefined;
-let worker: Service | undefined;
-let smtp: Awaited<ReturnType<typeof startFakeSmtp>> | undefined;
+let stack: AppStack | undefined;
 let context: BrowserContext | undefined;
 try {
 	const t0 = performance.now();
-	const db = await startCluster({ dataDir, port: await freePort(), log: () => {}, database: 'bench_canvas' });
-	const seq = openSequelize(db.url);
-	await migrateUp(seq);
-	await seedDemo(seq, { password: demoPassword() });
-	await seq.close();
-	if (ensureBuild(root, log)) log('built the app');
-	smtp = await startFakeSmtp({ mailboxDir: path.join(tmp, 'mailbox'), log: () => {} });
-	const port = await freePort();
-	const baseUrl = `http://127.0.0.1:${port}`;
-	const env = {
-		HOST: '127.0.0.1',
-		PORT: String(port),
-		DATABASE_URL: db.url,
-		MENISCUS_PUBLIC_URL: baseUrl,
-		MENISCUS_UPLOADS_DIR: uploadsDir,
-		SMTP_HOST: '127.0.0.1',
-		SMTP_PORT: String(smtp.port),
-		MENISCUS_MAILBOX_DIR: path.join(tmp, 'mailbox'),
-	};
-	const quiet = !process.env.BENCH_SERVER_LOG;
-	app = startService('app', process.execPath, ['dist/server/entry.mjs'], { cwd: root, env, quiet });
-	// The worker prepares the upload (checks, master, IIIF tiles) as in production.
-	worker = startService('worker', process.execPath, ['--import', 'tsx', 'scripts/worker.ts'], { cwd: root, env, quiet });
-	await waitForHttp(`${baseUrl}/login`, { child: app });
+	stack = await startAppStack('canvas', { worker: true, log });
+	const { baseUrl, tmp } = stack;
+	const profileDir = path.join(tmp, 'chromium');
 	log(`PostgreSQL, build, app and worker ready in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 
 	const cookie = await signIn(baseUrl);
@@ -154,21 +117,7 @@ try {
 		return { status: res.status, text, json: JSON.parse(text) as unknown };
 	};
 	const me = (await call('/api/me')).json as { user: { id: string } };
-	const created = (await call('/api/specimens', {
-		json: {
-			objectNumber: `BENCH.${process.pid}.CANVAS`,
-			title: 'Benchmark newt, whole',
-			preservativeKind: 'ethanol',
-			containerShape: 'cylinder',
-			innerWidthMm: 80,
-			innerHeightMm: 160,
-			containerMaterial: 'soda-lime',
-			closureType: 'glass-lid',
-			sealType: 'silicone',
-			hazards: [{ flag: 'flammable-spirit', note: '' }],
-		},
-	})).json as { specimen: { id: string } };
-	const specimenId = created.specimen.id;
+	const specimenId = await createSpecimen(baseUrl, cookie, `BENCH.${process.pid}.CANVAS`);
 	const check = (await call(`/api/specimens/${specimenId}/checks`, { json: {} })).json as { check: { id: string } };
 
 	// The photo benchmark's invented 60 MP camera-like JPEG (seeded, so the same bytes every run).
@@ -337,9 +286,5 @@ try {
 	);
 } finally {
 	await context?.close().catch(() => {});
-	await stopService(worker);
-	await stopService(app);
-	await smtp?.close();
-	await removeCluster({ dataDir }).catch(() => {});
-	fs.rmSync(tmp, { recursive: true, force: true });
+	await stack?.stop();
 }

@@ -13,16 +13,10 @@ import os from 'node:os';
 import path from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import { spawnSync } from 'node:child_process';
-import { freePort, removeCluster, startCluster } from '../db/cluster.mjs';
-import { ensureBuild } from '../scripts/lib/build.mjs';
-import { startService, stopService, waitForHttp, type Service } from '../scripts/lib/proc.mjs';
-import { demoPassword } from '../db/seeders/demoPassword.mjs';
+import { startService, stopService, type Service } from '../scripts/lib/proc.mjs';
 import { signIn, tusUpload } from './lib/appClient.ts';
-import { openSequelize } from '../src/lib/server/db.ts';
-import { migrateUp } from '../db/migrate.ts';
-import { seedDemo } from '../db/seeders/demo.ts';
-import { startFakeSmtp } from '../src/lib/server/mail/fakeSmtp.ts';
 import { emitPart, median, ratio, table } from './lib/report.ts';
+import { createSpecimen, startAppStack, type AppStack } from './lib/appStack.ts';
 import { UPLOAD_CHUNK_BYTES } from '../src/lib/photos/uploadPolicy.ts';
 
 const root = path.resolve(import.meta.dirname, '..');
@@ -32,12 +26,6 @@ const CHUNK = 8 * 1024 * 1024;
 const PER_REQUEST = 50;
 const log = (m: string) => console.log(`[upload] ${m}`);
 
-const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'meniscus-bench-upload-'));
-// As root, the postgres OS user must be able to enter the folder (mkdtemp makes it 0700).
-fs.chmodSync(tmp, 0o755);
-const dataDir = path.join(tmp, 'pg', 'data');
-const uploadsDir = path.join(tmp, 'uploads');
-const plainDir = path.join(tmp, 'plain');
 
 /** Random-ish bytes: nothing checks the content (no worker runs), and random bytes defeat any compression. */
 async function makeFile(file: string, size: number): Promise<void> {
@@ -86,32 +74,13 @@ function cpuSeconds(pid: number | undefined): number {
 	return (Number(after[11]) + Number(after[12])) / CLK_TCK;
 }
 
-let app: Service | undefined;
+let stack: AppStack | undefined;
 let plain: Service | undefined;
-let smtp: Awaited<ReturnType<typeof startFakeSmtp>> | undefined;
 try {
 	const t0 = performance.now();
-	const db = await startCluster({ dataDir, port: await freePort(), log: () => {}, database: 'bench_upload' });
-	const seq = openSequelize(db.url);
-	await migrateUp(seq);
-	await seedDemo(seq, { password: demoPassword() });
-	await seq.close();
-	if (ensureBuild(root, log)) log('built the app');
-	smtp = await startFakeSmtp({ mailboxDir: path.join(tmp, 'mailbox'), log: () => {} });
-	const port = await freePort();
-	const baseUrl = `http://127.0.0.1:${port}`;
-	const env = {
-		HOST: '127.0.0.1',
-		PORT: String(port),
-		DATABASE_URL: db.url,
-		MENISCUS_PUBLIC_URL: baseUrl,
-		MENISCUS_UPLOADS_DIR: uploadsDir,
-		SMTP_HOST: '127.0.0.1',
-		SMTP_PORT: String(smtp.port),
-		MENISCUS_MAILBOX_DIR: path.join(tmp, 'mailbox'),
-	};
-	app = startService('app', process.execPath, ['dist/server/entry.mjs'], { cwd: root, env, quiet: !process.env.BENCH_SERVER_LOG });
-	await waitForHttp(`${baseUrl}/login`, { child: app });
+	stack = await startAppStack('upload', { log });
+	const { baseUrl, app, uploadsDir, tmp } = stack;
+	const plainDir = path.join(tmp, 'plain');
 
 	fs.mkdirSync(plainDir);
 	plain = startService('plain', process.execPath, ['--import', 'tsx', path.join(root, 'bench', 'lib', 'plainPutServer.ts'), plainDir], { cwd: root, quiet: true });
@@ -126,24 +95,7 @@ try {
 
 	// Signed in as the demo conservator, the way a browser does it (a form POST with its Origin).
 	const cookie = await signIn(baseUrl);
-	const created = await fetch(`${baseUrl}/api/specimens`, {
-		method: 'POST',
-		headers: { origin: baseUrl, cookie, 'content-type': 'application/json' },
-		body: JSON.stringify({
-			objectNumber: `BENCH.${process.pid}.001`,
-			title: 'Benchmark newt, whole',
-			preservativeKind: 'ethanol',
-			containerShape: 'cylinder',
-			innerWidthMm: 80,
-			innerHeightMm: 160,
-			containerMaterial: 'soda-lime',
-			closureType: 'glass-lid',
-			sealType: 'silicone',
-			hazards: [{ flag: 'flammable-spirit', note: '' }],
-		}),
-	});
-	if (created.status !== 201) throw new Error(`specimen: ${created.status} ${await created.text()}`);
-	const specimenId = ((await created.json()) as { specimen: { id: string } }).specimen.id;
+	const specimenId = await createSpecimen(baseUrl, cookie, `BENCH.${process.pid}`);
 
 	const file = path.join(tmp, 'bench-upload.jpg');
 	const t1 = performance.now();
@@ -274,8 +226,5 @@ try {
 	);
 } finally {
 	await stopService(plain);
-	await stopService(app);
-	await smtp?.close();
-	await removeCluster({ dataDir }).catch(() => {});
-	fs.rmSync(tmp, { recursive: true, force: true });
+	await stack?.stop();
 }
