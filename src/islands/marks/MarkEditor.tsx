@@ -7,6 +7,7 @@ import { QueryRoot } from '../QueryRoot.tsx';
 import { api } from '../../lib/client/api.ts';
 import type { PhotoRecord } from '../../lib/photos/view.ts';
 import { parseInfo, tilesForView, type IiifInfo } from '../../lib/photos/iiifTiles.ts';
+import { fitView, visibleRect, zoomAbout } from '../../lib/photos/viewport.ts';
 import { toPhoto, screenPoint, type View } from '../../lib/marks/geometry.ts';
 import { MarkLayerSchema, type Level, type MarkLayer, type Severity } from '../../lib/marks/schema.ts';
 import type { LayerMode } from '../../lib/marks/policy.ts';
@@ -101,8 +102,7 @@ function Editor({ photo, answer, terms, info, userId }: { photo: PhotoRecord; an
 	}, []);
 
 	const fit = useCallback((): View => {
-		const scale = Math.min(size.w / photo.width, size.h / photo.height);
-		return { scale, x: -(size.w / scale - photo.width) / 2, y: -(size.h / scale - photo.height) / 2 };
+		return fitView(size, photo);
 	}, [size, photo.width, photo.height]);
 	// Fit on opening and whenever the box changes size, until the person zooms or pans themselves.
 	const moved = useRef(false);
@@ -151,12 +151,7 @@ function Editor({ photo, answer, terms, info, userId }: { photo: PhotoRecord; an
 
 	const zoomAt = (factor: number, sx: number, sy: number) => {
 		moved.current = true;
-		setView((v) => {
-			if (!v) return v;
-			const min = Math.min(size.w / photo.width, size.h / photo.height) / 4;
-			const scale = Math.min(8, Math.max(min, v.scale * factor));
-			return { scale, x: v.x + sx / v.scale - sx / scale, y: v.y + sy / v.scale - sy / scale };
-		});
+		setView((v) => (v ? zoomAbout(v, factor, sx, sy, Math.min(size.w / photo.width, size.h / photo.height) / 4, 8) : v));
 	};
 
 	const pointer = (e: Konva.KonvaEventObject<PointerEvent>, type: 'down' | 'move' | 'up') => {
@@ -247,7 +242,7 @@ function Editor({ photo, answer, terms, info, userId }: { photo: PhotoRecord; an
 		else if (s.action === 'zoom-out') zoomAt(1 / 1.4, size.w / 2, size.h / 2);
 	};
 
-	const tiles = view ? tilesForView(info, { x: view.x, y: view.y, w: size.w / view.scale, h: size.h / view.scale }, view.scale * (window.devicePixelRatio || 1)) : [];
+	const tiles = view ? tilesForView(info, visibleRect(view, size), view.scale * (window.devicePixelRatio || 1)) : [];
 	const base = photo.urls.tiles.replace(/\/info\.json$/, '');
 	const previewMarks = tool.state.preview?.kind === 'marks' ? new Set(tool.state.preview.marks.map((m) => m.id)) : new Set<string>();
 

@@ -1,18 +1,12 @@
 import { useCallback, useEffect, useRef, useState, type KeyboardEvent, type PointerEvent, type WheelEvent } from 'react';
 import { parseInfo, tilesForView, type IiifInfo } from '../../lib/photos/iiifTiles.ts';
+import { fitView, panBy, visibleRect, zoomAbout, type View } from '../../lib/photos/viewport.ts';
 
 /**
  * Full-resolution viewing through the photo's IIIF tiles: only the tiles in view are loaded, at
  * the level the zoom needs. Drag to pan, wheel or +/− to zoom about the pointer or the centre,
- * arrow keys to pan, 0 to fit. (The mark-up canvas builds on the same tile arithmetic.)
+ * arrow keys to pan, 0 to fit. (The condition map uses the same tile and view arithmetic.)
  */
-interface View {
-	/** Screen pixels per image pixel. */
-	scale: number;
-	/** Image pixel at the viewer's top-left corner. */
-	x: number;
-	y: number;
-}
 
 const MAX_SCALE = 4;
 
@@ -41,8 +35,7 @@ export function DeepZoom({ infoUrl, alt }: { infoUrl: string; alt: string }) {
 
 	const fit = useCallback((): View | null => {
 		if (!info) return null;
-		const scale = Math.min(size.w / info.width, size.h / info.height);
-		return { scale, x: -(size.w / scale - info.width) / 2, y: -(size.h / scale - info.height) / 2 };
+		return fitView(size, info);
 	}, [info, size]);
 
 	useEffect(() => {
@@ -50,17 +43,9 @@ export function DeepZoom({ infoUrl, alt }: { infoUrl: string; alt: string }) {
 	}, [info, view, fit]);
 
 	const zoomAt = (factor: number, sx: number, sy: number) =>
-		setView((v) => {
-			if (!v || !info) return v;
-			const min = Math.min(size.w / info.width, size.h / info.height) / 2;
-			const scale = Math.min(MAX_SCALE, Math.max(min, v.scale * factor));
-			// Keep the image point under (sx, sy) where it is.
-			const ix = v.x + sx / v.scale;
-			const iy = v.y + sy / v.scale;
-			return { scale, x: ix - sx / scale, y: iy - sy / scale };
-		});
+		setView((v) => (v && info ? zoomAbout(v, factor, sx, sy, Math.min(size.w / info.width, size.h / info.height) / 2, MAX_SCALE) : v));
 
-	const pan = (dx: number, dy: number) => setView((v) => (v ? { ...v, x: v.x + dx / v.scale, y: v.y + dy / v.scale } : v));
+	const pan = (dx: number, dy: number) => setView((v) => (v ? panBy(v, dx, dy) : v));
 
 	const onWheel = (e: WheelEvent) => {
 		const r = box.current!.getBoundingClientRect();
@@ -97,7 +82,7 @@ export function DeepZoom({ infoUrl, alt }: { infoUrl: string; alt: string }) {
 
 	if (error) return <p className="notice-error" role="alert">{error}</p>;
 	const base = infoUrl.replace(/\/info\.json$/, '');
-	const tiles = info && view ? tilesForView(info, { x: view.x, y: view.y, w: size.w / view.scale, h: size.h / view.scale }, view.scale * (window.devicePixelRatio || 1)) : [];
+	const tiles = info && view ? tilesForView(info, visibleRect(view, size), view.scale * (window.devicePixelRatio || 1)) : [];
 	return (
 		<div className="space-y-1">
 			<div
