@@ -70,7 +70,8 @@ export function placingTool(o: PlacingOptions): Tool<PlacingState> {
 				const dragged = s.press.dragged || distance(s.press.at, e.at) > tol;
 				const double = s.lastUp !== null && e.time - s.lastUp.time >= 0 && e.time - s.lastUp.time <= DOUBLE_CLICK_MS && near(s.lastUp.at, e.at, tol);
 				const next: PlacingState = { ...s, press: null, hover: e.at, lastUp: { at: e.at, time: e.time } };
-				if (dragged && s.points.length === 0 && o.dragDraws) return tryFinish({ ...next, points: [s.press.at, e.at] }, ctx, tol);
+				// A drag that comes back to where it started draws nothing (a line of zero length is no line); it counts as a click.
+				if (dragged && s.points.length === 0 && o.dragDraws && !near(s.press.at, e.at, tol)) return tryFinish({ ...next, points: [s.press.at, e.at] }, ctx, tol);
 				// A click places the point where the button went down (the release wobbles); a drag, where it ended.
 				const at = dragged ? e.at : s.press.at;
 				if (!dragged && double && s.points.length >= o.min) return tryFinish(next, ctx, tol);

@@ -95,6 +95,20 @@ describe('measurement tools', () => {
 		expect(commits(replay(scaleTool, [...click([0, 500], t), ...click([400, 502], t)]).effects)).toEqual([{ kind: 'scale', from: [0, 500], to: [400, 502] }]);
 	});
 
+	it('Scale bar and Level: a drag that returns to where it began draws no zero-length line (found by the property test)', () => {
+		for (const tool of [scaleTool, levelTool]) {
+			const t = clock();
+			const there = drag([100, 100], [300, 100], t);
+			// Out to (300, 100), back, and released on the starting point: a click, placing one end only.
+			const back = [...there.slice(0, -1), move([100, 100], t(16)), up([100, 100], t(16))];
+			const r = replay(tool, back);
+			expect(commits(r.effects)).toEqual([]);
+			expect(r.state.points).toEqual([[100, 100]]);
+			// The next click finishes it with two different ends.
+			expect(commits(replay(tool, click([100, 300], t), ctxOf(), r.state).effects)).toMatchObject([{ from: [100, 100], to: [100, 300] }]);
+		}
+	});
+
 	it('Scale bar: the island gives the length in mm when applying, and must', () => {
 		const t = clock();
 		const { effects } = replay(scaleTool, drag([0, 500], [400, 500], t));
