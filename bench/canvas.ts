@@ -14,6 +14,7 @@ import { signIn, tusUpload } from './lib/appClient.ts';
 import { createSpecimen, startAppStack, type AppStack } from './lib/appStack.ts';
 import { demoPassword } from '../db/seeders/demoPassword.mjs';
 import { testImages } from './lib/testImages.ts';
+import { CHROMIUM, ensureChromium } from '../scripts/lib/chromium.mjs';
 
 const root = path.resolve(import.meta.dirname, '..');
 const SAVES = Math.max(5, Number(process.env.BENCH_CANVAS_SAVES ?? 7));
@@ -99,6 +100,7 @@ let stack: AppStack | undefined;
 let context: BrowserContext | undefined;
 try {
 	const t0 = performance.now();
+	ensureChromium(log);
 	stack = await startAppStack('canvas', { worker: true, log });
 	const { baseUrl, tmp } = stack;
 	const profileDir = path.join(tmp, 'chromium');
@@ -170,7 +172,7 @@ try {
 
 	// Frame rate: the real page in headless Chromium, signed in through the form.
 	context = await chromium.launchPersistentContext(profileDir, {
-		executablePath: '/usr/bin/chromium',
+		executablePath: CHROMIUM,
 		args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
 		viewport: { width: 1400, height: 900 },
 	});
@@ -281,7 +283,7 @@ try {
 				],
 			),
 			'',
-			'Headless Chromium with `--disable-gpu` rasterises the canvas on the CPU, so the absolute frame rates are lower than on a desktop with a GPU (and depend on what else the machine is doing); the ratio between the two layers, measured the same way in the same run, is the figure to read.',
+			'Headless Chromium with `--disable-gpu` rasterises the canvas on the CPU, so the absolute frame rates are lower than on a desktop with a GPU (and depend on what else the machine is doing); the ratio between the two layers, measured the same way in the same run, is the figure to read. requestAnimationFrame runs at most 60 times a second here, so a ratio near 1 means both layers keep that pace. While the view moves the marks are shown from a bitmap drawn by a worker (stretched up to 4× before a new one is asked for, see `src/lib/marks/snapshot.ts`); 150 ms after it stops they are stroked again from the data, so a still picture looks exactly as before. This loop never stops, so it does not time that one sharp redraw.',
 		].join('\n'),
 	);
 } finally {

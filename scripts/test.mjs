@@ -8,6 +8,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { ensureDeps } from './lib/deps.mjs';
+import { ensureChromium } from './lib/chromium.mjs';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const log = (m) => console.log(`[test] ${m}`);
@@ -19,7 +20,7 @@ ensureDeps(root, log);
 if (!unitOnly) {
 	const { findPgBin } = await import('../db/cluster.mjs');
 	await findPgBin({ install: true, log });
-	ensureChromium();
+	ensureChromium(log);
 }
 
 const report = path.join(fs.mkdtempSync(path.join(os.tmpdir(), 'meniscus-report-')), 'vitest.json');
@@ -39,16 +40,3 @@ if (counts) console.log(`\nSummary: ${counts.passed} passed, ${counts.failed} fa
 else console.log('\nSummary: 0 passed, 1 failed (the test run did not complete; see above)');
 const ok = run.status === 0 && counts && counts.failed === 0 && counts.passed > 0;
 process.exit(ok ? 0 : 1);
-
-function ensureChromium() {
-	if (fs.existsSync('/usr/bin/chromium')) return;
-	if (process.getuid?.() !== 0) {
-		throw new Error("The browser tests need Debian's Chromium: sudo apt-get install chromium");
-	}
-	log("Installing Debian's chromium for the browser tests (about a minute)…");
-	const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
-	for (const a of [['update'], ['install', '-y', '--no-install-recommends', 'chromium']]) {
-		const r = spawnSync('apt-get', a, { stdio: 'inherit', env });
-		if (r.status !== 0) throw new Error(`apt-get ${a.join(' ')} failed`);
-	}
-}

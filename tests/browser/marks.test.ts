@@ -77,6 +77,51 @@ describe('the condition map', () => {
 		expect(saved.layer.marks.map((m: { kind: string }) => m.kind).sort()).toEqual(['outline', 'path', 'pin', 'scale']);
 		expect(errors).toEqual([]);
 
+		// While the view moves the marks are a bitmap drawn by a worker, scaled with the photo; once
+		// still they are stroked again. The two must cover the same pixels, or marks would jump.
+		await page.waitForTimeout(600);
+		expect(page.workers().length).toBeGreaterThan(0);
+		const frames = await page.evaluate(async () => {
+			const box = document.querySelector<HTMLElement>('[data-testid=mark-canvas]')!;
+			const layer = box.querySelectorAll('canvas')[1]!;
+			const nextFrame = () => new Promise((r) => requestAnimationFrame(() => r(null)));
+			const cover = () => {
+				const d = layer.getContext('2d')!.getImageData(0, 0, layer.width, layer.height).data;
+				const m = new Uint8Array(d.length / 4);
+				for (let i = 0; i < m.length; i++) m[i] = d[i * 4 + 3]! > 128 ? 1 : 0;
+				return { m, drawn: layer.dataset.marksDrawn };
+			};
+			const r = box.getBoundingClientRect();
+			box.dispatchEvent(new WheelEvent('wheel', { deltaY: -120, clientX: r.left + 300, clientY: r.top + 250, bubbles: true }));
+			await nextFrame();
+			await nextFrame();
+			const moving = cover();
+			await new Promise((res) => setTimeout(res, 400));
+			await nextFrame();
+			await nextFrame();
+			const still = cover();
+			// A covered pixel of one frame "agrees" when the other covers a pixel within 2 px of it:
+			// scaling softens and thickens edges by a pixel, a misplaced bitmap moves whole marks.
+			const w = layer.width;
+			const agree = (a: Uint8Array, b: Uint8Array) => {
+				let n = 0;
+				let ok = 0;
+				for (let i = 0; i < a.length; i++) {
+					if (!a[i]) continue;
+					n++;
+					const x = i % w;
+					const y = (i - x) / w;
+					search: for (let dy = -2; dy <= 2; dy++) for (let dx = -2; dx <= 2; dx++) if (b[(y + dy) * w + x + dx]) { ok++; break search; }
+				}
+				return { n, share: n ? ok / n : 0 };
+			};
+			return { movingDrawn: moving.drawn, stillDrawn: still.drawn, moving: agree(moving.m, still.m), still: agree(still.m, moving.m) };
+		});
+		expect(frames).toMatchObject({ movingDrawn: 'bitmap', stillDrawn: 'strokes' });
+		expect(frames.still.n).toBeGreaterThan(1000);
+		expect(frames.moving.share).toBeGreaterThan(0.97);
+		expect(frames.still.share).toBeGreaterThan(0.97);
+
 		// A curator reads the same marks but has no drawing tools.
 		await signInAs(page, 'curator', `/photos/${photoId}/marks`);
 		await expect.poll(() => page.getByTestId('mark-list').locator('li').count(), { timeout: 10_000 }).toBe(4);

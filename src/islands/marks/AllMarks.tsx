@@ -1,80 +1,82 @@
-import { memo } from 'react';
+import { memo, useEffect, useReducer, useRef } from 'react';
 import { Shape } from 'react-konva';
 import type { Mark } from '../../lib/marks/schema.ts';
-import { CASING, HALO } from '../../lib/marks/palette.ts';
-import { geometry, styleOf } from './MarkShape.tsx';
+import type { View } from '../../lib/marks/geometry.ts';
+import { SNAPSHOT, sameView, snapshotRegion, snapshotServes } from '../../lib/marks/snapshot.ts';
+import { drawAll, type Ctx } from './drawMarks.ts';
+import { SnapshotRenderer } from './snapshotRenderer.ts';
 
 /**
  * Every mark of the layer drawn by one Konva shape, straight onto the canvas: with a thousand marks,
- * one node per stroke and label (four or five thousand) cost more than the drawing itself, and a
- * zoom re-rendered them all (bench/canvas.ts: 0.18× the frame rate of no marks before, about 0.38×
- * after; batching strokes of one style into one path measured slower still, so each mark is
- * stroked on its own). Looks like MarkShape, which still draws selected and dragged marks on top.
+ * one node per stroke and label (four or five thousand) cost more than the drawing itself
+ * (bench/canvas.ts: 0.18× the frame rate of no marks with nodes, about 0.35× with one shape).
+ * MarkShape still draws selected and dragged marks on top.
+ *
+ * While the view moves, the marks come from a bitmap (lib/marks/snapshot.ts says when one can
+ * serve; a worker draws the next one off the main thread), moved and scaled with the photo; once the
+ * view has been still for SNAPSHOT.settleMs they are stroked again from the data, so what a person
+ * studies is always drawn sharp.
  */
-type Ctx = CanvasRenderingContext2D;
-
-function trace(c: Ctx, points: number[], closed: boolean) {
-	c.beginPath();
-	c.moveTo(points[0]!, points[1]!);
-	for (let i = 2; i < points.length; i += 2) c.lineTo(points[i]!, points[i + 1]!);
-	if (closed) c.closePath();
+interface Props {
+	marks: readonly Mark[];
+	view: View;
+	box: { w: number; h: number };
+	photo: { width: number; height: number };
 }
 
-function drawMark(c: Ctx, m: Mark, k: number) {
-	const s = styleOf(m);
-	const g = geometry(m);
-	c.setLineDash(s.dash.map((d) => d * k));
-	if (g.pin) {
-		c.beginPath();
-		c.arc(g.pin[0], g.pin[1], 7 * k, 0, Math.PI * 2);
-		c.fillStyle = s.colour;
-		c.fill();
-		c.lineWidth = 2 * k;
-		c.strokeStyle = CASING.colour;
-		c.stroke();
-	} else {
-		const passes: [string, number][] = [];
-		if (s.halo) passes.push([HALO.colour, s.width + HALO.width]);
-		passes.push([CASING.colour, s.width + CASING.width], [s.colour, s.width]);
-		for (const [colour, width] of passes) {
-			trace(c, g.points, g.closed);
-			c.strokeStyle = colour;
-			c.lineWidth = width * k;
-			c.stroke();
-		}
-		if (m.kind === 'scale') {
-			c.setLineDash([]);
-			for (const [x, y] of [m.from, m.to]) {
-				trace(c, [x, y - 10 * k, x, y + 10 * k], false);
-				c.strokeStyle = s.colour;
-				c.lineWidth = s.width * k;
-				c.stroke();
-			}
-		}
-	}
-	c.setLineDash([]);
-	c.font = `bold ${13 * k}px sans-serif`;
-	c.lineWidth = 3 * k;
-	c.strokeStyle = CASING.colour;
-	c.fillStyle = s.colour;
-	const x = g.anchor[0] + 9 * k;
-	const y = g.anchor[1] - 9 * k + 13 * k;
-	c.strokeText(s.code, x, y);
-	c.fillText(s.code, x, y);
-}
+export const AllMarks = memo(function AllMarks({ marks, view, box, photo }: Props) {
+	const [, redraw] = useReducer((n: number) => n + 1, 0);
+	const renderer = useRef<SnapshotRenderer | null>(null);
+	const lastMove = useRef<{ view: View; at: number }>({ view, at: -Infinity });
+	if (!sameView(lastMove.current.view, view)) lastMove.current = { view, at: performance.now() };
+	const moving = () => performance.now() - lastMove.current.at < SNAPSHOT.settleMs;
 
-export const AllMarks = memo(function AllMarks({ marks, zoom }: { marks: readonly Mark[]; zoom: number }) {
+	useEffect(() => {
+		// A bitmap that arrives while the view moves replaces the one being stretched.
+		const r = new SnapshotRenderer(() => moving() && redraw());
+		renderer.current = r;
+		return () => r.dispose();
+		// eslint-disable-next-line react-hooks/exhaustive-deps
+	}, []);
+	// Still for settleMs: stroke the marks sharp, and have the bitmap for the next gesture drawn.
+	useEffect(() => {
+		if (lastMove.current.at === -Infinity) return;
+		const t = window.setTimeout(redraw, SNAPSHOT.settleMs);
+		return () => window.clearTimeout(t);
+	}, [view.x, view.y, view.scale]);
+	useEffect(() => {
+		const r = renderer.current;
+		if (!r || moving()) return;
+		r.setMarks(marks);
+		const dpr = window.devicePixelRatio || 1;
+		r.request(snapshotRegion(view, box, photo, dpr), dpr);
+	});
+
 	return (
 		<Shape
 			listening={false}
 			perfectDrawEnabled={false}
 			sceneFunc={(ctx) => {
 				const c = (ctx as unknown as { _context: Ctx })._context;
-				c.save();
-				c.lineCap = 'round';
-				c.lineJoin = 'round';
-				for (const m of marks) drawMark(c, m, 1 / zoom);
-				c.restore();
+				// Which way this frame was drawn, for the browser test that checks the two line up.
+				const el = (c as CanvasRenderingContext2D).canvas;
+				const r = renderer.current;
+				const visible = { x: view.x, y: view.y, w: box.w / view.scale, h: box.h / view.scale };
+				const strokes = () => {
+					el.dataset.marksDrawn = 'strokes';
+					drawAll(c, marks, view.scale, visible);
+				};
+				if (!r || !moving()) return strokes();
+				const dpr = window.devicePixelRatio || 1;
+				r.setMarks(marks);
+				let s = r.current();
+				if (!s || !snapshotServes(s.region, view, box, photo)) {
+					r.request(snapshotRegion(view, box, photo, dpr), dpr);
+					s = r.current() ?? s;
+				}
+				if (!s) return strokes();
+				el.dataset.marksDrawn = 'bitmap';
+				c.drawImage(s.image, s.region.x, s.region.y, s.image.width / (s.region.scale * dpr), s.image.height / (s.region.scale * dpr));
 			}}
 		/>
 	);

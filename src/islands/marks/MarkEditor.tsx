@@ -327,7 +327,7 @@ function Editor({ photo, answer, terms, info, userId }: { photo: PhotoRecord; an
 								))}
 							</Layer>
 							<Layer x={-view.x * view.scale} y={-view.y * view.scale} scaleX={view.scale} scaleY={view.scale} listening={false}>
-								<AllMarks marks={visibleMarks.filter((m) => !previewMarks.has(m.id))} zoom={view.scale} />
+								<AllMarks marks={visibleMarks.filter((m) => !previewMarks.has(m.id))} view={view} box={size} photo={photo} />
 								{visibleMarks
 									.filter((m) => selected.includes(m.id) && !previewMarks.has(m.id))
 									.map((m) => (
