@@ -15,6 +15,7 @@ const BENCHMARKS = {
 	photos: { file: 'photoIngest.ts', what: 'photo ingest (24 MP, 60 MP) against ImageMagick' },
 	upload: { file: 'uploadThroughput.ts', what: 'tus upload throughput against a plain PUT' },
 	canvas: { file: 'canvas.ts', what: 'mark canvas: save round trip and pan/zoom frame rate, 1,000 marks against none' },
+	compare: { file: 'compare.ts', what: 'mark layer comparison: change detection at 250, 500 and 1,000 marks a side' },
 } as const;
 type Name = keyof typeof BENCHMARKS;
 const isName = (s: string): s is Name => s in BENCHMARKS;

@@ -1,0 +1,7 @@
+/** Comparing two photographs of one jar and their mark layers: registration, overlap, changes, fluid level. */
+export * from './changes.ts';
+export * from './fluid.ts';
+export * from './grid.ts';
+export * from './overlap.ts';
+export * from './pairs.ts';
+export * from './registration.ts';
