@@ -13,7 +13,8 @@ type PartRecord = { grade: Grade | null; terms: string[]; note: string };
 
 const SEVERITY: Record<Grade, Severity> = { good: 1, fair: 1, poor: 2, unacceptable: 3 };
 
-export function demoLayer(t: JarPhotoTruth, parts: Record<Part, PartRecord>, authorId: string, at: string): MarkLayer {
+/** `progress`: this check's place in the jar's series, 0 for the first and 1 for the latest. */
+export function demoLayer(t: JarPhotoTruth, parts: Record<Part, PartRecord>, authorId: string, at: string, progress = 1): MarkLayer {
 	const { centreX: cx, halfWidth: rx, rimY, fluidLineY, innerBaseY, specimenTopY } = t;
 	const across = (y: number): [Point, Point] => [[cx - 0.88 * rx, y], [cx + 0.88 * rx, y]];
 	const stamp = { authorId, createdAt: at, updatedAt: at };
@@ -28,7 +29,11 @@ export function demoLayer(t: JarPhotoTruth, parts: Record<Part, PartRecord>, aut
 	const span = innerBaseY - rimY;
 	type Geometry = { kind: 'path' | 'outline'; points: Point[] } | { kind: 'pin'; at: Point } | { kind: 'box'; x: number; y: number; w: number; h: number };
 	const place: Partial<Record<Part, (term: string) => Geometry>> = {
-		seal: () => ({ kind: 'path', points: [[cx - 0.7 * rx, rimY + 2], [cx - 0.25 * rx, rimY + 5], [cx + 0.2 * rx, rimY + 3], [cx + 0.55 * rx, rimY + 6]] }),
+		// A crack runs further with the years: from under half of the rim at the first check to most of it at the last.
+		seal: () => {
+			const k = (0.4 + 0.6 * progress) * rx;
+			return { kind: 'path', points: [[cx - 0.7 * k, rimY + 2], [cx - 0.25 * k, rimY + 5], [cx + 0.2 * k, rimY + 3], [cx + 0.55 * k, rimY + 6]] };
+		},
 		lid: () => ({ kind: 'pin', at: [cx + 0.45 * rx, rimY - 12] }),
 		container: () => ({ kind: 'path', points: [[cx + 0.8 * rx, rimY + 0.25 * span], [cx + 0.74 * rx, rimY + 0.33 * span], [cx + 0.78 * rx, rimY + 0.42 * span]] }),
 		fluid: (term) => (term.includes('level') ? { kind: 'pin', at: [cx, Math.min(fluidLineY, innerBaseY - 4)] } : { kind: 'box', x: cx - 0.6 * rx, y: Math.min(fluidLineY, innerBaseY - 20) + 8, w: 0.5 * rx, h: Math.max(12, 0.12 * span) }),

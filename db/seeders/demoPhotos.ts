@@ -64,6 +64,15 @@ const offsetFor = (date: string) => {
 	return m >= 4 && m <= 10 ? '+01:00' : '+00:00';
 };
 
+/** The jar whose seal crack grows between its last two checks (in review): the demo's before-and-after. */
+export const COMPARE_SHOWCASE = 'STC.1898.014';
+
+/** Where the tripod stood at this check: up to 6 % closer and 40 px off, different each time (invented). */
+function cameraFor(checkId: string) {
+	const h = crypto.createHash('sha256').update(`camera:${checkId}`).digest();
+	return { zoom: 1 + (h[0]! % 61) / 1000, dx: (h[1]! % 81) - 40, dy: (h[2]! % 81) - 40 };
+}
+
 /** `latest`: only each jar's most recent check (the tests use it to keep their set-up short). */
 export async function seedDemoPhotos(sequelize: Sequelize, opts: { parallel?: number; scope?: 'all' | 'latest'; log?: (m: string) => void } = {}): Promise<number> {
 	// The ingest code works through the server's own connection (DATABASE_URL), as the worker does.
@@ -78,7 +87,8 @@ export async function seedDemoPhotos(sequelize: Sequelize, opts: { parallel?: nu
 	);
 	const first = new Map<string, string>();
 	for (const r of rows) if (!first.has(r.specimen_id)) first.set(r.specimen_id, r.checked_on);
-	const chosen = opts.scope === 'latest' ? rows.filter((r) => Number(r.n) === Number(r.of)) : rows;
+	// The showcase jar keeps its last two checks even in `latest`, so there is always a pair to compare.
+	const chosen = opts.scope === 'latest' ? rows.filter((r) => Number(r.n) === Number(r.of) || (r.object_number === COMPARE_SHOWCASE && Number(r.n) === Number(r.of) - 1)) : rows;
 	const jobs = chosen.flatMap((r) => {
 		const views: ('front' | 'top')[] = Number(r.n) === Number(r.of) && r.object_number.charCodeAt(r.object_number.length - 1) % 3 === 0 ? ['front', 'top'] : ['front'];
 		return views.map((view) => ({ r, view }));
@@ -99,6 +109,7 @@ export async function seedDemoPhotos(sequelize: Sequelize, opts: { parallel?: nu
 			specimenTopFraction: 0.7 + (seed % 10) / 100,
 			captureTime: { local: `${r.checked_on.replaceAll('-', ':')} ${String(hour).padStart(2, '0')}:${String(seed % 60).padStart(2, '0')}:05`, offset: offsetFor(r.checked_on) },
 			view,
+			camera: cameraFor(r.check_id),
 		});
 		const id = crypto.createHash('sha256').update(`demo-photo:${r.check_id}:${view}`).digest('hex').slice(0, 32);
 		await fsp.writeFile(incomingFile(id), jpeg);
@@ -123,7 +134,7 @@ export async function seedDemoPhotos(sequelize: Sequelize, opts: { parallel?: nu
 		const outcome = await ingestUpload(id);
 		if (outcome.state !== 'recorded') throw new Error(`demo photo ${id} not recorded: ${JSON.stringify(outcome)}`);
 		if (view === 'front') {
-			const layer = demoLayer(truth, r.parts, r.examiner_id, new Date(`${r.checked_on}T${String(hour + 1).padStart(2, '0')}:00:00Z`).toISOString());
+			const layer = demoLayer(truth, r.parts, r.examiner_id, new Date(`${r.checked_on}T${String(hour + 1).padStart(2, '0')}:00:00Z`).toISOString(), Number(r.of) > 1 ? (Number(r.n) - 1) / (Number(r.of) - 1) : 1);
 			await sequelize.transaction(async (transaction) => {
 				// Many demo checks are created already approved; the seeder may still write their marks.
 				await sequelize.query(`SET LOCAL meniscus.seeding = 'on'`, { transaction });

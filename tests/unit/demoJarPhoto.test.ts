@@ -103,6 +103,22 @@ describe('renderJarPhoto', () => {
 		for (const v of mean) expect(Math.abs(v - 119)).toBeLessThanOrEqual(3);
 	});
 
+	it('moves its truth with the camera: the grey card and the fluid line are where it says after a zoom and a shift', async () => {
+		const camera = { zoom: 1.06, dx: 35, dy: -28 };
+		const still = jarPhotoSvg(base).truth;
+		const { jpeg, truth } = await renderJarPhoto({ ...base, camera });
+		// Magnified about the centre (800, 1000) and moved: x' = 1.06·(x − 800) + 800 + 35.
+		expect(truth.greyCard.x).toBeCloseTo(1.06 * (still.greyCard.x - 800) + 835, 1);
+		expect(truth.fluidLineY).toBeCloseTo(1.06 * (still.fluidLineY - 1000) + 972, 1);
+		expect(truth.pxPerMm).toBeCloseTo(still.pxPerMm * 1.06, 9);
+		const c = truth.greyCard;
+		for (const v of await meanRgb(jpeg, { x: c.x + 8, y: c.y + 8, w: c.w - 16, h: c.h - 16 })) expect(Math.abs(v - 119)).toBeLessThanOrEqual(3);
+		const { x, w } = sampleX(truth);
+		const below = await meanRgb(jpeg, { x, w, y: truth.fluidLineY + 10, h: 30 });
+		below.forEach((v, i) => expect(Math.abs(v - base.fluidColour[i]!)).toBeLessThan(25));
+		expect(() => jarPhotoSvg({ ...base, camera: { zoom: 0.9, dx: 0, dy: 0 } })).toThrow(RangeError);
+	});
+
 	it('draws the fluid up to fluidLineY: fluid colour below it, something else above', async () => {
 		for (const fluidColour of [[232, 218, 160], [150, 86, 30]] as [number, number, number][]) {
 			const { jpeg, truth } = await renderJarPhoto({ ...base, fluidColour });

@@ -37,6 +37,12 @@ export interface JarPhotoParams {
 	/** EXIF capture time, e.g. { local: '2019:06:14 10:32:05', offset: '+01:00' }. */
 	captureTime: { local: string; offset: string };
 	view?: JarView;
+	/**
+	 * Where the camera stood this time: the scene magnified by `zoom` (1 to 1.1) about the frame's
+	 * centre, then moved by (dx, dy) px. A tripod is never put back exactly, which is why photos of
+	 * different checks must be registered before they are compared. The truth follows the scene.
+	 */
+	camera?: { zoom: number; dx: number; dy: number };
 }
 
 /** Where things are, in photo pixels (for later demo marks and tests). */
@@ -1002,9 +1008,49 @@ export function jarPhotoSvg(p: JarPhotoParams): { svg: string; truth: JarPhotoTr
 	const jarRng = stream();
 	const size = jarSizeMm(r.shape, sizeRng);
 	const sc = layout(r, size, layoutRng);
+	const cam = cameraOf(p.camera, r.width, r.height);
 	const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="${r.width}" height="${r.height}" viewBox="0 0 ${r.width} ${r.height}">
-${backdrop(sc, bgRng)}${jarShadows(sc, r.fluid)}${jar(sc, r, jarRng)}${scaleBar(sc)}${greyCard(sc)}</svg>`;
-	return { svg, truth: truthOf(sc) };
+<g transform="matrix(${cam.zoom} 0 0 ${cam.zoom} ${cam.tx} ${cam.ty})">${backdrop(sc, bgRng)}${jarShadows(sc, r.fluid)}${jar(sc, r, jarRng)}${scaleBar(sc)}${greyCard(sc)}</g></svg>`;
+	return { svg, truth: moveTruth(truthOf(sc), cam) };
+}
+
+interface Camera {
+	zoom: number;
+	tx: number;
+	ty: number;
+}
+
+/** The camera as x' = zoom·x + tx: magnified about the centre, moved, and never uncovering the frame's edge. */
+function cameraOf(c: JarPhotoParams['camera'], width: number, height: number): Camera {
+	if (!c) return { zoom: 1, tx: 0, ty: 0 };
+	if (!(c.zoom >= 1 && c.zoom <= 1.1)) throw new RangeError(`camera.zoom must be from 1 to 1.1, not ${c.zoom}.`);
+	const clamp = (v: number, lo: number) => Math.min(0, Math.max(lo, v));
+	return {
+		zoom: c.zoom,
+		tx: r2(clamp((width * (1 - c.zoom)) / 2 + c.dx, width * (1 - c.zoom))),
+		ty: r2(clamp((height * (1 - c.zoom)) / 2 + c.dy, height * (1 - c.zoom))),
+	};
+}
+
+function moveTruth(t: JarPhotoTruth, c: Camera): JarPhotoTruth {
+	if (c.zoom === 1 && c.tx === 0 && c.ty === 0) return t;
+	const x = (v: number) => r2(c.zoom * v + c.tx);
+	const y = (v: number) => r2(c.zoom * v + c.ty);
+	const pt = ([a, b]: [number, number]): [number, number] => [x(a), y(b)];
+	const box = (b: Box): Box => ({ x: x(b.x), y: y(b.y), w: r2(b.w * c.zoom), h: r2(b.h * c.zoom) });
+	return {
+		...t,
+		pxPerMm: t.pxPerMm * c.zoom,
+		scaleBar: { from: pt(t.scaleBar.from), to: pt(t.scaleBar.to), lengthMm: t.scaleBar.lengthMm },
+		greyCard: box(t.greyCard),
+		fluidLineY: y(t.fluidLineY),
+		innerBaseY: y(t.innerBaseY),
+		specimenTopY: y(t.specimenTopY),
+		rimY: y(t.rimY),
+		centreX: x(t.centreX),
+		halfWidth: r2(t.halfWidth * c.zoom),
+		jar: box(t.jar),
+	};
 }
 
 /**
