@@ -2,6 +2,7 @@ import * as foundation from './20261201000000-foundation.ts';
 import * as checks from './20261202000000-condition-checks.ts';
 import * as photographs from './20261203000000-photographs.ts';
 import * as markLayers from './20261204000000-mark-layers.ts';
+import * as comparisons from './20261206000000-comparisons.ts';
 
 /**
  * Every migration, in order. Listed by static import rather than found by a file glob, so that
@@ -13,4 +14,5 @@ export const MIGRATIONS = [
 	{ name: '20261202000000-condition-checks.ts', ...checks },
 	{ name: '20261203000000-photographs.ts', ...photographs },
 	{ name: '20261204000000-mark-layers.ts', ...markLayers },
+	{ name: '20261206000000-comparisons.ts', ...comparisons },
 ];

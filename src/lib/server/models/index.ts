@@ -7,6 +7,7 @@ import { GradeInterval } from './GradeInterval.ts';
 import { LoginThrottle } from './LoginThrottle.ts';
 import { OutgoingMail } from './OutgoingMail.ts';
 import { Photo } from './Photo.ts';
+import { PhotoComparison } from './PhotoComparison.ts';
 import { PhotoDerivative } from './PhotoDerivative.ts';
 import { PhotoUpload } from './PhotoUpload.ts';
 import { PhotoMarkLayer } from './PhotoMarkLayer.ts';
@@ -16,12 +17,12 @@ import { User } from './User.ts';
 import { UserSession } from './UserSession.ts';
 
 export type { TokenPurpose } from './AuthToken.ts';
-export { AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Photo, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, User, UserSession };
+export { AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Photo, PhotoComparison, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, User, UserSession };
 export type { DerivativeKind } from './PhotoDerivative.ts';
 
 /** Binds every model to one connection and declares the associations. */
 export function initModels(sequelize: Sequelize): void {
-	for (const m of [AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Photo, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, User, UserSession]) {
+	for (const m of [AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Photo, PhotoComparison, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, User, UserSession]) {
 		m.initModel(sequelize);
 	}
 	Specimen.belongsTo(StorageLocation, { foreignKey: 'storageLocationId', as: 'location' });
@@ -36,4 +37,8 @@ export function initModels(sequelize: Sequelize): void {
 	Photo.belongsTo(Specimen, { foreignKey: 'specimenId', as: 'specimen' });
 	Photo.belongsTo(ConditionCheck, { foreignKey: 'checkId', as: 'check' });
 	Photo.hasMany(PhotoDerivative, { foreignKey: 'photoId', as: 'derivatives' });
+	PhotoComparison.belongsTo(User, { foreignKey: 'createdBy', as: 'creator' });
+	PhotoComparison.belongsTo(User, { foreignKey: 'updatedBy', as: 'updater' });
+	PhotoComparison.belongsTo(Photo, { foreignKey: 'beforePhotoId', as: 'before' });
+	PhotoComparison.belongsTo(Photo, { foreignKey: 'afterPhotoId', as: 'after' });
 }
