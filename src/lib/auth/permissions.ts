@@ -80,6 +80,9 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/checks/[id]/photos': { GET: 'signed-in' },
 	'/photos/[id]': { GET: 'signed-in' },
 	'/photos/[id]/marks': { GET: 'signed-in' },
+	// Comparing two photographs of a jar: everyone signed in looks.
+	'/api/specimens/[id]/comparison-sources': { GET: 'signed-in' },
+	'/api/photos/[id]/fluid-colour': { GET: 'signed-in' },
 	// Administration.
 	'/admin/users': { GET: ADMIN },
 	'/admin/mailbox': { GET: ADMIN },

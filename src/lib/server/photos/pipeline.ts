@@ -129,6 +129,21 @@ export async function makeDerivatives(master: string, setDir: string): Promise<D
 	}
 }
 
+/**
+ * The pixels of a derivative we wrote (a display copy: upright, sRGB, at most DISPLAY_LONG_EDGE),
+ * as 8-bit RGB rows, for measuring colours in it. Three channels whatever the file holds.
+ */
+export async function readRgb(file: string): Promise<{ data: Buffer; width: number; height: number; channels: 3 }> {
+	const { data, info } = await sharp(file, { limitInputPixels: MAX_PIXELS, failOn: 'truncated' })
+		.timeout({ seconds: SHARP_TIMEOUT_S })
+		.toColourspace('srgb')
+		.removeAlpha()
+		.raw({ depth: 'uchar' })
+		.toBuffer({ resolveWithObject: true });
+	if (info.channels !== 3) throw new Error(`expected 3 channels from ${file}, got ${info.channels}`);
+	return { data, width: info.width, height: info.height, channels: 3 };
+}
+
 /** Errors from libvips that mean "this file is bad", as opposed to "the machine had a problem". */
 export function isDecodeError(err: unknown): boolean {
 	const m = String((err as Error)?.message ?? err);
