@@ -16,6 +16,7 @@ const ADMIN = ['admin'] as const;
 const CONSERVATOR = ['conservator'] as const;
 const UPLOADER = ['conservator', 'admin'] as const;
 const ORIGINALS = ['conservator', 'reviewer', 'admin'] as const;
+const COMPARERS = ['conservator', 'reviewer'] as const;
 
 export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	// Sign-in, sign-out and password recovery.
@@ -80,9 +81,12 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/checks/[id]/photos': { GET: 'signed-in' },
 	'/photos/[id]': { GET: 'signed-in' },
 	'/photos/[id]/marks': { GET: 'signed-in' },
-	// Comparing two photographs of a jar: everyone signed in looks.
+	// Comparing two photographs of a jar: everyone signed in looks; conservators and reviewers save
+	// comparisons (reviewers compare before they decide). The server computes what is stored.
 	'/api/specimens/[id]/comparison-sources': { GET: 'signed-in' },
 	'/api/photos/[id]/fluid-colour': { GET: 'signed-in' },
+	'/api/specimens/[id]/comparisons': { GET: 'signed-in', POST: COMPARERS },
+	'/api/comparisons/[id]': { GET: 'signed-in', PUT: COMPARERS },
 	// Administration.
 	'/admin/users': { GET: ADMIN },
 	'/admin/mailbox': { GET: ADMIN },

@@ -1,5 +1,11 @@
 import { json, problem } from '../http.ts';
 import { CompareError } from './error.ts';
+import type { CompareActor } from './service.ts';
+
+/** The signed-in user with the address the audit trail records. */
+export function actorOf(locals: App.Locals, clientAddress: string): CompareActor {
+	return { ...locals.user!, clientAddress };
+}
 
 /** Runs a comparison operation and maps its refusals to HTTP answers (a 409 carries `current`). */
 export async function answer(run: () => Promise<unknown>, status = 200): Promise<Response> {
