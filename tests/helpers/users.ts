@@ -26,3 +26,9 @@ export async function cookieFor(userId: string): Promise<string> {
 	const c = await startSession(userId, 'vitest');
 	return `${c.name}=${c.value}`;
 }
+
+/** A new user of `role` with a session cookie, for tests that act as several people. */
+export async function signedInUser(role: Role, tag?: string): Promise<{ id: string; cookie: string }> {
+	const { user } = await makeUser(role, { tag });
+	return { id: user.id, cookie: await cookieFor(user.id) };
+}
