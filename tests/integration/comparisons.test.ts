@@ -96,7 +96,7 @@ async function sources(specimen: string, cookie = curator): Promise<ComparisonSo
 	return res.json();
 }
 
-const fluidColour = async (photoId: string): Promise<FluidColourAnswer> => (await call(`/api/photos/${photoId}/fluid-colour`, { cookie: curator })).json();
+const fluidColour = async (photoId: string): Promise<FluidColourAnswer> => ((await (await call(`/api/photos/${photoId}/fluid-colour`, { cookie: curator })).json()) as { colour: FluidColourAnswer }).colour;
 const compared = (p: ComparisonSourcePhoto): ComparedPhoto => ({ width: p.width, height: p.height, layer: p.layer.layer, date: p.date, levelMm: p.check?.levelMm ?? null });
 
 describe('the photographs a comparison can use', () => {
@@ -189,13 +189,14 @@ describe('saving a comparison', () => {
 		const got = await call(`/api/comparisons/${c.id}`, { cookie: curator });
 		expect((await got.json()).comparison).toEqual(c);
 		const list = (await (await call(`/api/specimens/${specimenId}/comparisons`, { cookie: curator })).json()).comparisons;
-		const earlier = (await sources(specimenId)).photos.find((p) => p.id === earlierId)!;
+		const photos = (await sources(specimenId)).photos;
+		const [earlier, later] = [earlierId, laterId].map((id) => photos.find((p) => p.id === id)!);
 		expect(list[0]).toEqual({
 			id: c.id,
 			beforePhotoId: earlierId,
 			afterPhotoId: laterId,
-			beforeCheckedOn: earlier.check!.checkedOn,
-			afterCheckedOn: null,
+			beforeDate: earlier!.check!.checkedOn,
+			afterDate: later!.date,
 			model: 'perspective',
 			counts: c.summary.counts,
 			createdBy: { id: conservatorId, name: 'Test conservator' },

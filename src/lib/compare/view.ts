@@ -35,7 +35,7 @@ export interface ComparisonSources {
 	photos: ComparisonSourcePhoto[];
 }
 
-/** GET /api/photos/[id]/fluid-colour: ready to hand to analysePair's `colour`. */
+/** GET /api/photos/[id]/fluid-colour answers { colour: FluidColourAnswer }, ready for analysePair's `colour`. */
 export type FluidColourAnswer = FluidColour | { problem: string };
 
 export interface PersonRef {
@@ -64,9 +64,9 @@ export interface ComparisonListItem {
 	id: string;
 	beforePhotoId: string;
 	afterPhotoId: string;
-	/** The checks' dates (YYYY-MM-DD); null for a photograph taken outside a check. */
-	beforeCheckedOn: string | null;
-	afterCheckedOn: string | null;
+	/** The days the two photographs are dated by (ComparisonSourcePhoto.date), YYYY-MM-DD. */
+	beforeDate: string;
+	afterDate: string;
 	model: RegistrationModel;
 	counts: Record<ChangeClass, number>;
 	createdBy: PersonRef;

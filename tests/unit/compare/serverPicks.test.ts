@@ -37,12 +37,11 @@ describe('the day a photograph is dated by', () => {
 		expect(comparedDate({ ...photo({ capturedRaw: '2026:11:30 09:00:00' }), check: { checkedOn: '2026-12-01' } } as unknown as Comparable)).toBe('2026-12-01');
 	});
 
-	it('is the day the camera’s clock showed, not the UTC day', () => {
-		expect(comparedDate(photo({ capturedRaw: '2026:11:30 00:30:00', capturedAt: new Date('2026-11-29T23:30:00Z') }))).toBe('2026-11-30');
+	it('is the capture instant’s UTC day, as the compare island dates what it shows', () => {
+		expect(comparedDate(photo({ capturedRaw: '2026:11:30 00:30:00', capturedAt: new Date('2026-11-29T23:30:00Z') }))).toBe('2026-11-29');
 	});
 
-	it('falls back to the capture instant, then the upload, in UTC', () => {
-		expect(comparedDate(photo({ capturedAt: new Date('2026-11-29T23:30:00Z') }))).toBe('2026-11-29');
+	it('falls back to the upload’s day when the camera recorded no time', () => {
 		expect(comparedDate(photo({}))).toBe('2026-12-03');
 	});
 });

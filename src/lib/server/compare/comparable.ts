@@ -47,13 +47,12 @@ export async function comparablePhotos(where: WhereOptions<Photo>, transaction?:
 }
 
 /**
- * The day a photograph is dated by in a comparison: its check's, else the day the camera's clock
- * showed (EXIF local time, the day the person taking it saw), else the instant in UTC.
+ * The day a photograph is dated by in a comparison: its check's, else the capture instant's UTC
+ * day (the rule the compare island applies to what it shows, so the summary it shows and the one
+ * stored agree), else the upload's for a photograph whose camera recorded no time.
  */
 export function comparedDate(p: Pick<Comparable, 'photo' | 'check'>): string {
 	if (p.check) return p.check.checkedOn;
-	const raw = /^(\d{4}):(\d{2}):(\d{2})/.exec(p.photo.capturedRaw ?? '');
-	if (raw) return `${raw[1]}-${raw[2]}-${raw[3]}`;
 	return (p.photo.capturedAt ?? p.photo.uploadedAt).toISOString().slice(0, 10);
 }
 

@@ -1,10 +1,12 @@
 import type { ConditionCheck, Photo, PhotoComparison, User } from '../models/index.ts';
 import type { ComparisonListItem, ComparisonView, PersonRef } from '../../compare/view.ts';
+import { comparedDate } from './comparable.ts';
 
 /** A saved comparison as the API shows it, loaded with its creator and last editor. */
 export type LoadedComparison = PhotoComparison & { creator?: User; updater?: User };
-/** …and, for the list, its photos' checks. */
-export type ListedComparison = LoadedComparison & { before?: Photo & { check?: ConditionCheck | null }; after?: Photo & { check?: ConditionCheck | null } };
+/** …and, for the list, its photos with their checks. */
+type DatedPhoto = Photo & { check: ConditionCheck | null };
+export type ListedComparison = LoadedComparison & { before: DatedPhoto; after: DatedPhoto };
 
 const person = (id: string, u: User | undefined): PersonRef => ({ id, name: u?.name ?? '' });
 
@@ -32,8 +34,8 @@ export function comparisonListItem(c: ListedComparison): ComparisonListItem {
 		id: c.id,
 		beforePhotoId: c.beforePhotoId,
 		afterPhotoId: c.afterPhotoId,
-		beforeCheckedOn: c.before?.check?.checkedOn ?? null,
-		afterCheckedOn: c.after?.check?.checkedOn ?? null,
+		beforeDate: comparedDate({ photo: c.before, check: c.before.check }),
+		afterDate: comparedDate({ photo: c.after, check: c.after.check }),
 		model: c.model,
 		counts: c.summary.counts,
 		createdBy: person(c.createdBy, c.creator),

@@ -27,7 +27,7 @@ const people = [
 	{ model: User, as: 'creator', attributes: ['id', 'name'] },
 	{ model: User, as: 'updater', attributes: ['id', 'name'] },
 ];
-const photoCheck = (as: 'before' | 'after') => ({ model: Photo, as, attributes: ['id', 'checkId'], include: [{ model: ConditionCheck, as: 'check', attributes: ['id', 'checkedOn'] }] });
+const datedPhoto = (as: 'before' | 'after') => ({ model: Photo, as, attributes: ['id', 'checkId', 'capturedAt', 'uploadedAt'], include: [{ model: ConditionCheck, as: 'check', attributes: ['id', 'checkedOn'] }] });
 
 async function view(id: string, transaction?: Transaction): Promise<ComparisonView | null> {
 	const c = (await PhotoComparison.findByPk(id, { include: people, transaction })) as LoadedComparison | null;
@@ -49,7 +49,7 @@ export async function listComparisons(specimenId: string): Promise<ComparisonLis
 	await specimenOrThrow(specimenId);
 	const rows = (await PhotoComparison.findAll({
 		where: { specimenId },
-		include: [...people, photoCheck('before'), photoCheck('after')],
+		include: [...people, datedPhoto('before'), datedPhoto('after')],
 		order: [['createdAt', 'DESC'], ['id', 'ASC']],
 	})) as ListedComparison[];
 	return rows.map(comparisonListItem);
