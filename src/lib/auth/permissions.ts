@@ -80,6 +80,9 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/checks/[id]/photos': { GET: 'signed-in' },
 	'/photos/[id]': { GET: 'signed-in' },
 	'/photos/[id]/marks': { GET: 'signed-in' },
+	// Comparing two photographs: anyone signed in may look; saving is the API's to allow.
+	'/specimens/[id]/compare': { GET: 'signed-in' },
+	'/comparisons/[id]': { GET: 'signed-in' },
 	// Administration.
 	'/admin/users': { GET: ADMIN },
 	'/admin/mailbox': { GET: ADMIN },
