@@ -48,7 +48,8 @@ describe('comparing two photographs', () => {
 		const [before, after] = fronts.slice(-2) as [SourcePhoto, SourcePhoto];
 		expect(after.check!.status).toBe('in-review');
 
-		const page = await browser().newPage({ viewport: { width: 1440, height: 1000 } });
+		const page = await browser().newPage();
+		await page.setViewportSize({ width: 1440, height: 1000 });
 		const errors: string[] = [];
 		page.on('pageerror', (e) => errors.push(e.message));
 		await signInAs(page, 'reviewer', `/specimens/${specimenId}/compare?before=${before.id}&after=${after.id}`);
