@@ -43,6 +43,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/specimens/[id]': { GET: 'signed-in', PUT: CONSERVATOR },
 	'/api/specimens/[id]/history': { GET: 'signed-in' },
 	'/api/locations': { GET: 'signed-in', POST: ADMIN },
+	'/api/locations/[id]': { PATCH: ADMIN },
 	// Condition checks. Conservators open, edit and submit; reviewers approve or return (the workflow
 	// in src/lib/check/workflow.ts decides each transition); everybody signed in reads.
 	'/checks/[id]': { GET: 'signed-in' },
