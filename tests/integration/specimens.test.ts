@@ -155,3 +155,16 @@ describe('the register view', () => {
 		expect(csv).toContain(`"'=HYPERLINK(""http://evil.example"")"`);
 	});
 });
+
+describe('the top of the specimen', () => {
+	it('is kept on the record, exported, and refused above the inner height', async () => {
+		const s = await create({ specimenTopMm: 118.5 });
+		expect(s.specimenTopMm).toBe(118.5);
+		const csv = Papa.parse<Record<string, string>>((await (await call(`/api/specimens/export?q=${s.objectNumber}`, { cookie: curator })).text()).replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: true });
+		expect(csv.data[0]).toMatchObject({ object_number: s.objectNumber, specimen_top_mm: '118.5' });
+		const bad = await call(`/api/specimens/${s.id}`, { cookie: conservator, method: 'PUT', json: { version: 0, record: record({ objectNumber: s.objectNumber, specimenTopMm: 170 }) } });
+		expect(bad.status).toBe(400);
+		expect((await bad.json()).fields.map((f: { path: string }) => f.path)).toContain('record.specimenTopMm');
+		expect((await Specimen.findByPk(s.id))!.specimenTopMm).toBe(118.5);
+	});
+});
