@@ -168,3 +168,20 @@ describe('the top of the specimen', () => {
 		expect((await Specimen.findByPk(s.id))!.specimenTopMm).toBe(118.5);
 	});
 });
+
+describe('the register filters the overview links to', () => {
+	it('filters by collection, open check, flammable fluid and “not checked yet”', async () => {
+		const s = await create({ department: `Filter series ${prefix}`, hazards: [] });
+		const total = async (qs: string) => (await (await call(`/api/specimens?${qs}`, { cookie: curator })).json()).total;
+		const dept = `department=${encodeURIComponent(`Filter series ${prefix}`)}`;
+		expect(await total(dept)).toBe(1);
+		expect(await total(`${dept}&grade=not-checked&priority=not-set`)).toBe(1);
+		expect(await total(`${dept}&grade=good`)).toBe(0);
+		// Ethanol is flammable spirit whether or not the record flags it.
+		expect(await total(`${dept}&flammable=yes`)).toBe(1);
+		expect(await total(`${dept}&check=in-review`)).toBe(0);
+		expect((await call(`/api/specimens/${s.id}/checks`, { cookie: conservator, json: {} })).status).toBe(201);
+		expect(await total(`${dept}&check=draft`)).toBe(1);
+		expect((await call('/api/specimens?check=approved', { cookie: curator })).status).toBe(400);
+	});
+});
