@@ -17,7 +17,7 @@ export function AcrossChecks({ timeline, photos }: { timeline: Timeline; photos:
 	const photosOf = (key: string, view: PhotoView) => (key === 'loose' ? loose : photos.filter((p) => p.check?.id === key)).filter((p) => p.view === view);
 	const views = PHOTO_VIEWS.filter((v) => photos.some((p) => p.view === v));
 	const row = (label: string, cell: (c: TimelineCheck) => ReactNode, testId?: string) => (
-		<tr className="border-t border-ink-100" data-testid={testId}>
+		<tr key={label} className="border-t border-ink-100" data-testid={testId}>
 			<th scope="row" className="sticky left-0 z-10 bg-white py-2 pr-3 text-left text-sm font-semibold text-ink-700">{label}</th>
 			{columns.map(({ key, check }) => (
 				<td key={key} className="px-2 py-2 align-top text-sm">{check ? cell(check) : null}</td>
