@@ -1,7 +1,8 @@
-// Register query at collection scale: a throwaway PostgreSQL with 10,000 invented specimens, then
-// the register's first page under the common views, against a baseline measured in the same run
-// (one round trip `SELECT 1`, and `SELECT count(*)` over the table). Prints medians and p95 in ms
-// and ratios to the baseline. Run: `npm run bench -- register` (or all benchmarks: `npm run bench`).
+// Register query at collection scale: a throwaway PostgreSQL with 10,000 invented specimens (three
+// approved checks each), then the register's first page under the common views and the collection
+// overview (whole, one store, one collection, and its parts), against a baseline measured in the
+// same run (one round trip `SELECT 1`, and `SELECT count(*)` over the table). Prints medians and p95
+// in ms and ratios to the baseline. Run: `npm run bench -- register` (or all: `npm run bench`).
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -9,7 +10,7 @@ import { freePort, removeCluster, startCluster } from '../db/cluster.mjs';
 import { openSequelize } from '../src/lib/server/db.ts';
 import { migrateUp } from '../db/migrate.ts';
 import { seedDemo } from '../db/seeders/demo.ts';
-import { insertGenerated } from '../db/seeders/generated.ts';
+import { insertGenerated, insertGeneratedChecks } from '../db/seeders/generated.ts';
 import { RegisterQuerySchema } from '../src/lib/specimen/query.ts';
 import { emitPart, table } from './lib/report.ts';
 
@@ -39,11 +40,22 @@ try {
 	await seedDemo(seq, { password: 'bench-password-not-used' });
 	const t0 = performance.now();
 	await insertGenerated(seq, N);
+	const checks = await insertGeneratedChecks(seq, { perJar: 3 });
 	await seq.query('ANALYZE');
-	console.log(`inserted ${N} specimens in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
+	console.log(`inserted ${N} specimens and ${checks} checks in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 	const { registerPage } = await import('../src/lib/server/specimens/register.ts');
 	const { db: appDb } = await import('../src/lib/server/db.ts');
 	appDb();
+	const { collectionOverview } = await import('../src/lib/server/overview/overview.ts');
+	const { figures } = await import('../src/lib/server/overview/figures.ts');
+	const { fluidLoss } = await import('../src/lib/server/overview/fluidLoss.ts');
+	const { inventory, airspaceAtRisk } = await import('../src/lib/server/overview/stores.ts');
+	const { StorageLocation } = await import('../src/lib/server/models/index.ts');
+	const stores = await StorageLocation.findAll();
+	const store = stores.find((l) => l.code === 'SPR-A2')!;
+	const day = new Date().toISOString().slice(0, 10);
+	const whole = await collectionOverview({});
+	console.log(`overview: ${whole.specimens} specimens, ${whole.fluidLoss.considered} jars falling, ${whole.airspace.rows.length}${whole.airspace.truncated ? '+' : ''} at risk`);
 	const q = (over: Record<string, string>) => RegisterQuerySchema.parse(over);
 	const cases: [string, () => Promise<unknown>][] = [
 		['baseline: SELECT 1', () => seq.query('SELECT 1')],
@@ -54,6 +66,13 @@ try {
 		['filter formalin + overdue', () => registerPage(q({ preservative: 'formalin', due: 'overdue' }))],
 		['filter hazard lead', () => registerPage(q({ hazard: 'lead' }))],
 		['page 100, by location', () => registerPage(q({ sort: 'location', page: '100' }))],
+		['overview, whole collection', () => collectionOverview({})],
+		['overview, one store', () => collectionOverview({ location: store.id })],
+		['overview, one collection', () => collectionOverview({ collection: 'Comparative anatomy' })],
+		['overview part: counts', () => figures({}, day)],
+		['overview part: fluid loss (SQL fit + JS judging)', () => fluidLoss({}, day)],
+		['overview part: store totals', () => inventory({}, stores)],
+		['overview part: airspace at risk', async () => airspaceAtRisk({}, stores, await inventory({}, stores))],
 	];
 	const results: [string, { median: number; p95: number }][] = [];
 	for (const [name, fn] of cases) results.push([name, await time(fn)]);
@@ -66,7 +85,7 @@ try {
 		[
 			'## Register query at collection scale',
 			'',
-			`${N.toLocaleString('en-GB')} invented specimens in a throwaway PostgreSQL; the register's first page under the common views, ${RUNS} runs each after 3 warm-up runs. Baseline in the same run: \`SELECT count(*)\` over the table (and one round trip, \`SELECT 1\`).`,
+			`${N.toLocaleString('en-GB')} invented specimens with ${checks.toLocaleString('en-GB')} approved checks in a throwaway PostgreSQL; the register's first page under the common views, and the collection overview (the whole of GET /api/overview's work but HTTP, then its parts; the airspace part includes the store totals it needs), ${RUNS} runs each after 3 warm-up runs. Baseline in the same run: \`SELECT count(*)\` over the table (and one round trip, \`SELECT 1\`).`,
 			'',
 			table(['query', 'median (ms)', 'p95 (ms)', '× count(*)'], results.map(([name, r]) => [name, r.median.toFixed(2), r.p95.toFixed(2), `${(r.median / base).toFixed(2)}×`])),
 		].join('\n'),

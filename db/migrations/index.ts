@@ -2,6 +2,9 @@ import * as foundation from './20261201000000-foundation.ts';
 import * as checks from './20261202000000-condition-checks.ts';
 import * as photographs from './20261203000000-photographs.ts';
 import * as markLayers from './20261204000000-mark-layers.ts';
+import * as storeLimits from './20261205000000-store-limits.ts';
+import * as specimenTop from './20261205000100-specimen-top.ts';
+import * as correctionsIndex from './20261205000200-check-corrections-index.ts';
 import * as comparisons from './20261206000000-comparisons.ts';
 
 /**
@@ -14,5 +17,8 @@ export const MIGRATIONS = [
 	{ name: '20261202000000-condition-checks.ts', ...checks },
 	{ name: '20261203000000-photographs.ts', ...photographs },
 	{ name: '20261204000000-mark-layers.ts', ...markLayers },
+	{ name: '20261205000000-store-limits.ts', ...storeLimits },
+	{ name: '20261205000100-specimen-top.ts', ...specimenTop },
+	{ name: '20261205000200-check-corrections-index.ts', ...correctionsIndex },
 	{ name: '20261206000000-comparisons.ts', ...comparisons },
 ];

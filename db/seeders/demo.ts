@@ -1,8 +1,9 @@
+import crypto from 'node:crypto';
 import type { Sequelize } from 'sequelize';
 import { QueryTypes } from 'sequelize';
 import { hashPassword } from '../../src/lib/server/auth/password.ts';
 import type { Role } from '../../src/lib/auth/roles.ts';
-import { DEMO_LOCATIONS, DEMO_SPECIMENS, DEMO_USERS } from './demoData.ts';
+import { DEMO_LOCATIONS, DEMO_SPECIMENS, DEMO_TOP_NOT_MEASURED, DEMO_USERS } from './demoData.ts';
 import { seedDemoChecks } from './demoChecks.ts';
 
 /**
@@ -32,7 +33,11 @@ export async function seedDemo(sequelize: Sequelize, opts: { password: string; t
 			DEMO_USERS.map((u: { email: string; name: string; role: Role }) => ({ ...u, password_hash: hash, disabled: false, ...stamp })),
 			{ transaction },
 		);
-		await qi.bulkInsert('storage_locations', DEMO_LOCATIONS.map((l) => ({ ...l, ...stamp })), { transaction });
+		await qi.bulkInsert(
+			'storage_locations',
+			DEMO_LOCATIONS.map((l) => ({ code: l.code, name: l.name, notes: l.notes, flammable_limit_l: l.limitL, near_limit_percent: 80, temp_min_c: l.minC, temp_max_c: l.maxC, ...stamp })),
+			{ transaction },
+		);
 		const locs = await sequelize.query<{ id: string; code: string }>('SELECT id, code FROM storage_locations', {
 			type: QueryTypes.SELECT,
 			transaction,
@@ -52,6 +57,7 @@ export async function seedDemo(sequelize: Sequelize, opts: { password: string; t
 				inner_width_mm: s.dims[0],
 				inner_depth_mm: s.dims[1],
 				inner_height_mm: s.dims[2],
+				specimen_top_mm: DEMO_TOP_NOT_MEASURED.has(s.objectNumber) ? null : demoSpecimenTopMm(s.objectNumber, s.dims[2]),
 				container_material: s.material,
 				closure_type: s.closure,
 				seal_type: s.seal,
@@ -71,4 +77,13 @@ export async function seedDemo(sequelize: Sequelize, opts: { password: string; t
 		return seedDemoChecks(sequelize, transaction, { today, users: { conservatorId: idOf('conservator'), reviewerId: idOf('reviewer') } });
 	});
 	return { seeded: true, users: DEMO_USERS.length, specimens: DEMO_SPECIMENS.length, checks };
+}
+
+/**
+ * Where the seeder's drawings put each specimen's top: 0.70–0.79 of the inner height, from the same
+ * hash of the object number that demoPhotos.ts draws with, so the record and the photographs agree.
+ */
+function demoSpecimenTopMm(objectNumber: string, innerHeightMm: number): number {
+	const seed = parseInt(crypto.createHash('sha256').update(objectNumber).digest('hex').slice(0, 8), 16);
+	return Math.round(innerHeightMm * (0.7 + (seed % 10) / 100));
 }

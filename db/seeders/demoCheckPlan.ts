@@ -19,6 +19,11 @@ export type CheckPlan = {
 	firstNote?: string;
 	/** What the reviewer asked for, when the newest check was returned. */
 	reviewComment?: string;
+	/**
+	 * Topped up nearly to the lid after the second-newest approved check, and found so at the newest:
+	 * the level this many mm below the lid (too little airspace for a warm store).
+	 */
+	brimMm?: number;
 };
 
 const f = (part: Part, term: string, from: Grade, to: Grade, note: string): Finding => ({ part, term, grades: [from, to], note });
@@ -30,6 +35,7 @@ export const CHECK_PLANS: Record<string, CheckPlan> = {
 	},
 	'STC.1902.003': { newest: 'draft', findings: [f('seal', 'dried', 'fair', 'fair', 'Pitch dry and brittle at the back corners.')] },
 	'STC.1902.017': {
+		brimMm: 0.5,
 		findings: [f('seal', 'dried', 'fair', 'fair', 'Wax dull and lifting in places.'), f('mount', 'slack thread', 'good', 'fair', 'Two arm ties slack; arm tips drifting off the plate.')],
 	},
 	'STC.1905.041': {
@@ -40,9 +46,9 @@ export const CHECK_PLANS: Record<string, CheckPlan> = {
 		findings: [f('fluid', 'discoloured', 'fair', 'fair', 'Fluid yellow-brown.'), f('seal', 'dried', 'fair', 'fair', 'Pitch dry but whole.')],
 		noTopUp: true,
 	},
-	'STC.1911.008': { findings: [f('specimen', 'fading / bleaching', 'fair', 'fair', 'Colour paler on the side facing the gallery lights.')] },
+	'STC.1911.008': { brimMm: 0.3, findings: [f('specimen', 'fading / bleaching', 'fair', 'fair', 'Colour paler on the side facing the gallery lights.')] },
 	'STC.1920.117': { findings: [f('seal', 'dried', 'good', 'fair', 'Wax round the stopper dry and starting to lift.')] },
-	'STC.1923.004': { findings: [f('mount', 'slack thread', 'good', 'fair', 'Thread of embryo 5 slack; embryo tilted forward.')] },
+	'STC.1923.004': { brimMm: 0, findings: [f('mount', 'slack thread', 'good', 'fair', 'Thread of embryo 5 slack; embryo tilted forward.')] },
 	'STC.1923.019': {
 		findings: [
 			f('mount', 'snapped thread', 'poor', 'poor', 'Thread at the left forelimb snapped; the limb rests against the glass.'),

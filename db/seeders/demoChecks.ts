@@ -149,6 +149,7 @@ function historyOf(j: Jar, plan: CheckPlan, today: string, users: DemoCheckUsers
 		level -= fall * years * (0.8 + rnd() * 0.4);
 		strength -= strengthFall * years;
 		pH = Math.max(5, pH - pHFall * years);
+		if (plan.brimMm !== undefined && i === approvedCount - 1) level = j.h - plan.brimMm;
 		const state: CheckState = i < approvedCount ? 'approved' : plan.newest!;
 		const progress = i / (total - 1);
 
@@ -189,12 +190,15 @@ function historyOf(j: Jar, plan: CheckPlan, today: string, users: DemoCheckUsers
 		}
 
 		// Topping up is recorded on the check that found the jar low; the next check starts full again.
-		const topUp = state === 'approved' && i < total - 1 && loss / j.h >= 0.06 && mode !== 'unknown' && !plan.noTopUp;
+		const toBrim = plan.brimMm !== undefined && i === approvedCount - 2;
+		const topUp = toBrim || (state === 'approved' && i < total - 1 && loss / j.h >= 0.06 && mode !== 'unknown' && !plan.noTopUp);
 		if (topUp) {
-			notes.push(`Topped up to the fill line after this check with ${topUpWith} (about ${Math.round((loss * mlMm) / 10) * 10} mL).`);
-			strength = (strength * level + (recorded || 70) * (fillLine - level)) / fillLine;
-			pH += (7 - pH) * ((fillLine - level) / fillLine);
-			level = fillLine;
+			const target = toBrim ? j.h - plan.brimMm! : fillLine;
+			const added = `about ${Math.round(((target - levelMm) * mlMm) / 10) * 10} mL`;
+			notes.push(toBrim ? `Topped up after this check with ${topUpWith}, nearly to the lid (${added}).` : `Topped up to the fill line after this check with ${topUpWith} (${added}).`);
+			strength = (strength * level + (recorded || 70) * (target - level)) / target;
+			pH += (7 - pH) * ((target - level) / target);
+			level = target;
 		}
 
 		// The returned check left the level out; the draft is only started.

@@ -20,14 +20,22 @@ export const DEMO_USERS: { email: string; name: string; role: Role }[] = [
 	{ email: 'admin@example.org', name: 'Pim Castellanos', role: 'admin' },
 ];
 
+/**
+ * The stores, with invented flammable limits (litres) and expected temperature ranges (°C): spirit
+ * store A bay 1 is near its limit, the gallery case warms under its lights, and the quarantine shelf
+ * has neither set, as a newly listed location would.
+ */
 export const DEMO_LOCATIONS = [
-	{ code: 'SPR-A1', name: 'Spirit store A, bay 1', notes: 'Flammables store; fire-resisting cabinets along the north wall.' },
-	{ code: 'SPR-A2', name: 'Spirit store A, bay 2', notes: '' },
-	{ code: 'SPR-B1', name: 'Spirit store B, bay 1', notes: 'Cooler room, about 15 °C in winter.' },
-	{ code: 'FRM-1', name: 'Formalin room, shelf run 1', notes: 'Local exhaust ventilation at the bench.' },
-	{ code: 'GAL-2', name: 'Teaching gallery, case 2', notes: 'On display; lit 8 hours a day.' },
-	{ code: 'QRT-1', name: 'Quarantine shelf', notes: 'Jars with unknown fluid or leaking seals awaiting assessment.' },
+	{ code: 'SPR-A1', name: 'Spirit store A, bay 1', notes: 'Flammables store; fire-resisting cabinets along the north wall.', limitL: 11, minC: 16, maxC: 23 },
+	{ code: 'SPR-A2', name: 'Spirit store A, bay 2', notes: '', limitL: 40, minC: 16, maxC: 24 },
+	{ code: 'SPR-B1', name: 'Spirit store B, bay 1', notes: 'Cooler room, about 15 °C in winter.', limitL: 25, minC: 13, maxC: 19 },
+	{ code: 'FRM-1', name: 'Formalin room, shelf run 1', notes: 'Local exhaust ventilation at the bench.', limitL: 10, minC: 17, maxC: 22 },
+	{ code: 'GAL-2', name: 'Teaching gallery, case 2', notes: 'On display; lit 8 hours a day.', limitL: 8, minC: 19, maxC: 28 },
+	{ code: 'QRT-1', name: 'Quarantine shelf', notes: 'Jars with unknown fluid or leaking seals awaiting assessment.', limitL: null, minC: null, maxC: null },
 ];
+
+/** Jars whose specimen top was never measured, so the demo shows a history without that forecast. */
+export const DEMO_TOP_NOT_MEASURED = new Set(['STC.1931.251', 'STC.2004.001']);
 
 type Demo = {
 	objectNumber: string;

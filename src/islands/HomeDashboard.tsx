@@ -7,6 +7,7 @@ import { ROLE_LABELS, type Role } from '../lib/auth/roles.ts';
 import type { CheckView } from '../lib/check/view.ts';
 import { CHECK_LABELS } from '../lib/check/vocabulary.ts';
 import { GradeBadge } from './check/GradeBadge.tsx';
+import { Breakdown, Empty, Figure, Section } from './dashboard/parts.tsx';
 
 /** The home page's figures, fetched from /api/home; each role sees its own part. */
 export default function HomeDashboard() {
@@ -82,9 +83,9 @@ function Collection({ c }: { c: NonNullable<HomeSummary['collection']> }) {
 				<Figure label="With toxic or unknown hazards" value={c.withHazards} tone={c.withHazards > 0 ? 'caution' : undefined} />
 			</div>
 			<div className="mt-6 grid gap-6 md:grid-cols-3">
-				<Breakdown title="By preservative" rows={c.byPreservative} labels={LABELS.preservative} of={c.specimens} />
-				<Breakdown title="By seal" rows={c.bySeal} labels={LABELS.seal} of={c.specimens} />
-				<Breakdown title="Hazard flags" rows={c.byHazard} labels={LABELS.hazard} of={c.specimens} />
+				<Breakdown title="By preservative" rows={rowsOf(c.byPreservative, LABELS.preservative)} of={c.specimens} />
+				<Breakdown title="By seal" rows={rowsOf(c.bySeal, LABELS.seal)} of={c.specimens} />
+				<Breakdown title="Hazard flags" rows={rowsOf(c.byHazard, LABELS.hazard)} of={c.specimens} />
 			</div>
 			{Object.keys(c.byHazard).length > 0 && (
 				<p className="notice-caution mt-6">
@@ -143,51 +144,5 @@ function Admin({ a }: { a: NonNullable<HomeSummary['admin']> }) {
 	);
 }
 
-function Section({ title, children }: { title: string; children: React.ReactNode }) {
-	return (
-		<section className="card" aria-labelledby={slug(title)}>
-			<h2 id={slug(title)} className="mb-4 text-xl font-semibold">{title}</h2>
-			{children}
-		</section>
-	);
-}
-
-function Empty({ children }: { children: React.ReactNode }) {
-	return <p className="rounded-md border border-dashed border-ink-200 bg-paper px-4 py-6 text-ink-700">{children}</p>;
-}
-
-function Figure({ label, value, tone }: { label: string; value: number; tone?: 'alert' | 'caution' }) {
-	const colour = tone === 'alert' ? 'text-alert-700' : tone === 'caution' ? 'text-spirit-800' : 'text-ink-900';
-	return (
-		<div className="rounded-md bg-paper px-4 py-3">
-			<div className={`text-3xl font-semibold tabular-nums ${colour}`}>{value}</div>
-			<div className="text-sm text-ink-700">{label}</div>
-		</div>
-	);
-}
-
-/** Counts with a bar each, as a share of `of` jars (a jar can carry several hazard flags). */
-function Breakdown(props: { title: string; rows: Record<string, number>; labels: Record<string, string>; of: number }) {
-	const { title, rows, labels } = props;
-	const total = props.of || 1;
-	return (
-		<div>
-			<h3 className="text-lg font-semibold">{title}</h3>
-			<ul className="mt-2 space-y-2">
-				{Object.entries(rows).map(([k, n]) => (
-					<li key={k} className="text-sm">
-						<div className="flex justify-between">
-							<span>{labels[k] ?? k}</span>
-							<span className="tabular-nums text-ink-700">{n}</span>
-						</div>
-						<div className="mt-1 h-2 rounded bg-ink-100" aria-hidden="true">
-							<div className="h-2 rounded bg-glass-500" style={{ width: `${(100 * n) / total}%` }} />
-						</div>
-					</li>
-				))}
-			</ul>
-		</div>
-	);
-}
-
-const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-');
+const rowsOf = (counts: Record<string, number>, labels: Record<string, string>) =>
+	Object.entries(counts).map(([key, count]) => ({ key, label: labels[key] ?? key, count }));

@@ -92,10 +92,16 @@ describe('the condition map', () => {
 				return { m, drawn: layer.dataset.marksDrawn };
 			};
 			const r = box.getBoundingClientRect();
-			box.dispatchEvent(new WheelEvent('wheel', { deltaY: -120, clientX: r.left + 300, clientY: r.top + 250, bubbles: true }));
-			await nextFrame();
-			await nextFrame();
-			const moving = cover();
+			// The worker's first bitmap may still be on its way on a busy machine: try a few gestures.
+			let moving = cover();
+			for (let attempt = 0; attempt < 6; attempt++) {
+				box.dispatchEvent(new WheelEvent('wheel', { deltaY: attempt % 2 ? 120 : -120, clientX: r.left + 300, clientY: r.top + 250, bubbles: true }));
+				await nextFrame();
+				await nextFrame();
+				moving = cover();
+				if (moving.drawn === 'bitmap') break;
+				await new Promise((res) => setTimeout(res, 500));
+			}
 			await new Promise((res) => setTimeout(res, 400));
 			await nextFrame();
 			await nextFrame();

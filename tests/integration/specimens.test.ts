@@ -155,3 +155,33 @@ describe('the register view', () => {
 		expect(csv).toContain(`"'=HYPERLINK(""http://evil.example"")"`);
 	});
 });
+
+describe('the top of the specimen', () => {
+	it('is kept on the record, exported, and refused above the inner height', async () => {
+		const s = await create({ specimenTopMm: 118.5 });
+		expect(s.specimenTopMm).toBe(118.5);
+		const csv = Papa.parse<Record<string, string>>((await (await call(`/api/specimens/export?q=${s.objectNumber}`, { cookie: curator })).text()).replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: true });
+		expect(csv.data[0]).toMatchObject({ object_number: s.objectNumber, specimen_top_mm: '118.5' });
+		const bad = await call(`/api/specimens/${s.id}`, { cookie: conservator, method: 'PUT', json: { version: 0, record: record({ objectNumber: s.objectNumber, specimenTopMm: 170 }) } });
+		expect(bad.status).toBe(400);
+		expect((await bad.json()).fields.map((f: { path: string }) => f.path)).toContain('record.specimenTopMm');
+		expect((await Specimen.findByPk(s.id))!.specimenTopMm).toBe(118.5);
+	});
+});
+
+describe('the register filters the overview links to', () => {
+	it('filters by collection, open check, flammable fluid and “not checked yet”', async () => {
+		const s = await create({ department: `Filter series ${prefix}`, hazards: [] });
+		const total = async (qs: string) => (await (await call(`/api/specimens?${qs}`, { cookie: curator })).json()).total;
+		const dept = `department=${encodeURIComponent(`Filter series ${prefix}`)}`;
+		expect(await total(dept)).toBe(1);
+		expect(await total(`${dept}&grade=not-checked&priority=not-set`)).toBe(1);
+		expect(await total(`${dept}&grade=good`)).toBe(0);
+		// Ethanol is flammable spirit whether or not the record flags it.
+		expect(await total(`${dept}&flammable=yes`)).toBe(1);
+		expect(await total(`${dept}&check=in-review`)).toBe(0);
+		expect((await call(`/api/specimens/${s.id}/checks`, { cookie: conservator, json: {} })).status).toBe(201);
+		expect(await total(`${dept}&check=draft`)).toBe(1);
+		expect((await call('/api/specimens?check=approved', { cookie: curator })).status).toBe(400);
+	});
+});

@@ -3,10 +3,11 @@ import { useState } from 'react';
 import { QueryRoot } from '../QueryRoot.tsx';
 import { api, ApiError } from '../../lib/client/api.ts';
 import { CHECK_LABELS, DEFAULT_TERMS, GRADES, PARTS, type Grade, type Part } from '../../lib/check/vocabulary.ts';
+import { Locations, problemText } from './Locations.tsx';
 
 /**
- * The lists an administrator keeps: storage locations, damage terms per part (added to the built-in
- * ones), and the months to the next check per overall grade.
+ * The lists an administrator keeps: storage locations with their limits, damage terms per part
+ * (added to the built-in ones), and the months to the next check per overall grade.
  */
 export default function Lists() {
 	return (
@@ -19,37 +20,6 @@ export default function Lists() {
 				</div>
 			</div>
 		</QueryRoot>
-	);
-}
-
-const problemText = (e: ApiError | null) => (e ? [e.message, ...e.fields.map((f) => f.message)].join(' ') : null);
-
-function Locations() {
-	const qc = useQueryClient();
-	const q = useQuery({ queryKey: ['locations'], queryFn: () => api<{ locations: { id: string; code: string; name: string; notes: string }[] }>('/api/locations') });
-	const [form, setForm] = useState({ code: '', name: '' });
-	const add = useMutation<unknown, ApiError>({
-		mutationFn: () => api('/api/locations', { method: 'POST', body: form }),
-		onSuccess: () => {
-			setForm({ code: '', name: '' });
-			return qc.invalidateQueries({ queryKey: ['locations'] });
-		},
-	});
-	return (
-		<section className="card" aria-labelledby="loc-h">
-			<h2 id="loc-h" className="text-xl font-semibold">Storage locations</h2>
-			<ul className="mt-3 divide-y divide-ink-100 text-sm" data-testid="locations">
-				{q.data?.locations.map((l) => (
-					<li key={l.id} className="py-2"><span className="font-mono font-semibold">{l.code}</span> — {l.name}</li>
-				))}
-			</ul>
-			<form className="mt-4 grid gap-3 sm:grid-cols-[8rem_1fr_auto]" onSubmit={(e) => { e.preventDefault(); add.mutate(); }} noValidate>
-				<div><label className="field-label" htmlFor="loc-code">Code</label><input id="loc-code" className="field-input" value={form.code} onChange={(e) => setForm({ ...form, code: e.target.value })} /></div>
-				<div><label className="field-label" htmlFor="loc-name">Name</label><input id="loc-name" className="field-input" value={form.name} onChange={(e) => setForm({ ...form, name: e.target.value })} /></div>
-				<button className="btn-primary self-end" type="submit" disabled={add.isPending}>Add</button>
-			</form>
-			{add.error && <p className="notice-error mt-3" role="alert">{problemText(add.error)}</p>}
-		</section>
 	);
 }
 

@@ -232,6 +232,14 @@ function Editor({ check, terms, role, userId }: { check: CheckView; terms: Recor
 					<button type="button" className="btn-primary" disabled={busy} onClick={run(submit)}>Submit for review</button>
 				</div>
 			)}
+			{role === 'reviewer' && check.state === 'in-review' && (
+				<p className="text-sm">
+					<a className="text-glass-700 underline" href={`/specimens/${check.specimen.id}/compare`} data-testid="compare-link">
+						Compare this check's photographs with the last check's
+					</a>{' '}
+					to see what changed; you can decide there too.
+				</p>
+			)}
 			{role === 'reviewer' && check.state === 'in-review' && check.examiner.id !== userId && (
 				<ReviewPanel check={check} pending={busy} onDecide={(decision, comment) => { setMessage(null); decide.mutate({ decision, comment }); }} />
 			)}

@@ -4,11 +4,11 @@ import { CHECK_LABELS, type Grade } from '../../lib/check/vocabulary.ts';
  * A grade as a badge. Colour is never the only cue: the word is always there and the number of
  * filled bars (1–4) rises with severity. Our own palette, defined here once.
  */
-export const GRADE_STYLE: Record<Grade, { className: string; bars: number }> = {
-	good: { className: 'border-glass-600 bg-glass-50 text-glass-900', bars: 1 },
-	fair: { className: 'border-spirit-500 bg-spirit-50 text-spirit-900', bars: 2 },
-	poor: { className: 'border-spirit-700 bg-spirit-100 text-spirit-900', bars: 3 },
-	unacceptable: { className: 'border-alert-600 bg-alert-50 text-alert-700', bars: 4 },
+export const GRADE_STYLE: Record<Grade, { className: string; bars: number; fill: string }> = {
+	good: { className: 'border-glass-600 bg-glass-50 text-glass-900', bars: 1, fill: 'bg-glass-600' },
+	fair: { className: 'border-spirit-500 bg-spirit-50 text-spirit-900', bars: 2, fill: 'bg-spirit-500' },
+	poor: { className: 'border-spirit-700 bg-spirit-100 text-spirit-900', bars: 3, fill: 'bg-spirit-700' },
+	unacceptable: { className: 'border-alert-600 bg-alert-50 text-alert-700', bars: 4, fill: 'bg-alert-600' },
 };
 
 export function GradeBadge({ grade }: { grade: Grade | null }) {

@@ -1,7 +1,7 @@
 import { useEffect, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { api } from '../../lib/client/api.ts';
-import type { RegisterQuery } from '../../lib/specimen/query.ts';
+import { CHECK_FILTERS, type RegisterQuery } from '../../lib/specimen/query.ts';
 import { CHECK_LABELS, GRADES, PRIORITIES } from '../../lib/check/vocabulary.ts';
 import { CONTAINER_SHAPES, HAZARD_FLAGS, LABELS, PRESERVATIVE_KINDS, SEAL_TYPES } from '../../lib/specimen/vocabulary.ts';
 
@@ -39,12 +39,22 @@ export function Filters({ query, update }: { query: RegisterQuery; update: (c: P
 			</div>
 			{select('location', 'Location', (locations.data?.locations ?? []).map((l) => [l.id, `${l.code} — ${l.name}`]))}
 			{select('due', 'Next check', [['overdue', 'Overdue'], ['within-90-days', 'Due within 90 days'], ['not-set', 'Not set']])}
-			{select('grade', 'Condition', GRADES.map((g) => [g, CHECK_LABELS.grade[g]]))}
-			{select('priority', 'Priority', PRIORITIES.map((p) => [p, CHECK_LABELS.priority[p]]))}
+			{select('grade', 'Condition', [...GRADES.map((g): [string, string] => [g, CHECK_LABELS.grade[g]]), ['not-checked', 'Not checked yet']])}
+			{select('priority', 'Priority', [...PRIORITIES.map((p): [string, string] => [p, CHECK_LABELS.priority[p]]), ['not-set', 'Not set']])}
+			{select('check', 'Open check', CHECK_FILTERS.map((s) => [s, CHECK_LABELS.state[s]]))}
+			{select('flammable', 'Flammable fluid', [['yes', 'Spirit, or unknown fluid']])}
 			{select('preservative', 'Preservative', PRESERVATIVE_KINDS.map((k) => [k, LABELS.preservative[k]]))}
 			{select('seal', 'Seal', SEAL_TYPES.map((k) => [k, LABELS.seal[k]]))}
 			{select('shape', 'Jar shape', CONTAINER_SHAPES.map((k) => [k, LABELS.shape[k]]))}
 			{select('hazard', 'Hazard', HAZARD_FLAGS.map((k) => [k, LABELS.hazard[k]]))}
+			{query.department && (
+				<div className="flex items-end sm:col-span-2">
+					<p className="flex min-h-touch items-center gap-2 rounded-md border border-glass-300 bg-glass-50 px-3 text-sm" data-testid="filter-department">
+						<span>Collection: <strong>{query.department}</strong></span>
+						<button type="button" className="font-semibold text-glass-700 underline" onClick={() => update({ department: undefined })}>Remove</button>
+					</p>
+				</div>
+			)}
 		</div>
 	);
 }

@@ -67,6 +67,7 @@ function Detail({ id, canEdit }: { id: string; canEdit: boolean }) {
 						<Row term="Jar" value={`${LABELS.shape[s.containerShape]}, ${LABELS.material[s.containerMaterial].toLowerCase()}, ${dims} inside`} />
 						<Row term="Closure and seal" value={`${LABELS.closure[s.closureType]}; ${LABELS.seal[s.sealType].toLowerCase()} seal`} />
 						<Row term="Inner volume" value={`${Math.round(innerVolumeMl(jar)).toLocaleString('en-GB')} mL; ${mlPerMm(jar).toFixed(2)} mL per mm of level`} />
+						<Row term="Top of the specimen" value={s.specimenTopMm === null ? 'Not measured' : `${s.specimenTopMm} mm above the inner base`} />
 						<Row term="Next check due" value={s.nextCheckDue ?? 'Not set'} />
 					</dl>
 					{s.description && <p className="mt-4 whitespace-pre-line text-sm text-ink-800">{s.description}</p>}

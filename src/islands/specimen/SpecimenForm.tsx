@@ -113,6 +113,7 @@ function Form({ initial, original, locations }: { initial: FormValues; original?
 				<legend className="px-1 font-serif text-lg font-semibold">Fluid</legend>
 				<Select {...field} name="preservativeKind" label="Preservative" options={PRESERVATIVE_KINDS.map((k) => [k, LABELS.preservative[k]])} />
 				<Text {...field} name="preservativeRecorded" label="As recorded (label, old register)" hint="Keep the old wording, e.g. “spirit (label, 1898)”" />
+				<Text {...field} name="specimenTopMm" label="Top of the specimen (mm above the inner base)" inputMode="decimal" hint="Measured like the fluid level; the history forecasts when the fluid would fall to it." />
 			</fieldset>
 			<fieldset className="card space-y-3">
 				<legend className="px-1 font-serif text-lg font-semibold">Hazards</legend>

@@ -18,6 +18,7 @@ export interface FormValues {
 	innerWidthMm: string;
 	innerDepthMm: string;
 	innerHeightMm: string;
+	specimenTopMm: string;
 	containerMaterial: string;
 	closureType: string;
 	sealType: string;
@@ -30,7 +31,7 @@ const num = (s: string) => (s.trim() === '' ? Number.NaN : Number(s.trim().repla
 export function emptyForm(): FormValues {
 	return {
 		objectNumber: '', title: '', description: '', department: '', storageLocationId: '', preservativeRecorded: '',
-		preservativeKind: 'ethanol', containerShape: 'cylinder', innerWidthMm: '', innerDepthMm: '', innerHeightMm: '',
+		preservativeKind: 'ethanol', containerShape: 'cylinder', innerWidthMm: '', innerDepthMm: '', innerHeightMm: '', specimenTopMm: '',
 		containerMaterial: 'soda-lime', closureType: 'glass-lid', sealType: 'unknown', nextCheckDue: '',
 		hazards: Object.fromEntries(HAZARD_FLAGS.map((f) => [f, { on: false, note: '' }])) as FormValues['hazards'],
 	};
@@ -45,6 +46,7 @@ export function fromView(s: SpecimenView): FormValues {
 		storageLocationId: s.storageLocation?.id ?? '', preservativeRecorded: s.preservativeRecorded,
 		preservativeKind: s.preservativeKind, containerShape: s.containerShape, innerWidthMm: String(s.innerWidthMm),
 		innerDepthMm: s.innerDepthMm === null ? '' : String(s.innerDepthMm), innerHeightMm: String(s.innerHeightMm),
+		specimenTopMm: s.specimenTopMm === null ? '' : String(s.specimenTopMm),
 		containerMaterial: s.containerMaterial, closureType: s.closureType, sealType: s.sealType, nextCheckDue: s.nextCheckDue ?? '',
 	};
 }
@@ -63,6 +65,7 @@ export function toInput(v: FormValues): SpecimenInput {
 		// An empty second dimension is “not given”, which the schema explains better than “not a number”.
 		innerDepthMm: v.containerShape === 'cylinder' || v.innerDepthMm.trim() === '' ? null : num(v.innerDepthMm),
 		innerHeightMm: num(v.innerHeightMm),
+		specimenTopMm: v.specimenTopMm.trim() === '' ? null : num(v.specimenTopMm),
 		containerMaterial: v.containerMaterial as SpecimenInput['containerMaterial'],
 		closureType: v.closureType as SpecimenInput['closureType'],
 		sealType: v.sealType as SpecimenInput['sealType'],

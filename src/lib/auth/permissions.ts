@@ -16,6 +16,8 @@ const ADMIN = ['admin'] as const;
 const CONSERVATOR = ['conservator'] as const;
 const UPLOADER = ['conservator', 'admin'] as const;
 const ORIGINALS = ['conservator', 'reviewer', 'admin'] as const;
+/** Who reads the collection overview: the people who look after the jars (administrators keep the lists). */
+const COLLECTION = ['conservator', 'reviewer', 'curator'] as const;
 const COMPARERS = ['conservator', 'reviewer'] as const;
 
 export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
@@ -30,6 +32,9 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/': { GET: 'signed-in' },
 	'/api/me': { GET: 'signed-in' },
 	'/api/home': { GET: 'signed-in' },
+	// The collection overview: the curator's home, and a page of its own for conservators and reviewers.
+	'/overview': { GET: COLLECTION },
+	'/api/overview': { GET: COLLECTION },
 	// The register. Conservators register and edit specimens; everyone signed in reads them.
 	'/specimens': { GET: 'signed-in' },
 	'/specimens/new': { GET: CONSERVATOR },
@@ -43,7 +48,9 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/specimens/import/commit': { POST: CONSERVATOR },
 	'/api/specimens/[id]': { GET: 'signed-in', PUT: CONSERVATOR },
 	'/api/specimens/[id]/history': { GET: 'signed-in' },
+	'/api/specimens/[id]/timeline': { GET: 'signed-in' },
 	'/api/locations': { GET: 'signed-in', POST: ADMIN },
+	'/api/locations/[id]': { PATCH: ADMIN },
 	// Condition checks. Conservators open, edit and submit; reviewers approve or return (the workflow
 	// in src/lib/check/workflow.ts decides each transition); everybody signed in reads.
 	'/checks/[id]': { GET: 'signed-in' },
@@ -87,6 +94,8 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/photos/[id]/fluid-colour': { GET: 'signed-in' },
 	'/api/specimens/[id]/comparisons': { GET: 'signed-in', POST: COMPARERS },
 	'/api/comparisons/[id]': { GET: 'signed-in', PUT: COMPARERS },
+	'/specimens/[id]/compare': { GET: 'signed-in' },
+	'/comparisons/[id]': { GET: 'signed-in' },
 	// Administration.
 	'/admin/users': { GET: ADMIN },
 	'/admin/mailbox': { GET: ADMIN },

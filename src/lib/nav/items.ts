@@ -10,6 +10,8 @@ export interface NavItem {
 export const NAV_ITEMS: readonly NavItem[] = [
 	{ href: '/', label: 'Home', roles: 'all' },
 	{ href: '/specimens', label: 'Register', roles: 'all' },
+	// The curator's home is the overview already.
+	{ href: '/overview', label: 'Overview', roles: ['conservator', 'reviewer'] },
 	{ href: '/fluid', label: 'Fluid tools', roles: 'all' },
 	{ href: '/admin/users', label: 'Users', roles: ['admin'] },
 	{ href: '/admin/lists', label: 'Lists', roles: ['admin'] },

@@ -13,7 +13,7 @@ import { readDate, readHazards, readLocation, readMm, readTerm, readText, undefu
 export const IMPORT_FIELDS = [
 	'object_number', 'title', 'description', 'department', 'location_code', 'preservative_recorded',
 	'preservative_kind', 'container_shape', 'inner_width_mm', 'inner_depth_mm', 'inner_height_mm',
-	'container_material', 'closure_type', 'seal_type', 'hazards', 'next_check_due',
+	'container_material', 'closure_type', 'seal_type', 'hazards', 'next_check_due', 'specimen_top_mm',
 ] as const;
 export type ImportField = (typeof IMPORT_FIELDS)[number];
 export const IGNORE = 'ignore';
@@ -71,6 +71,7 @@ const SYNONYMS: Partial<Record<ImportField, string[]>> = {
 	inner_width_mm: ['width', 'diameter', 'inner diameter'],
 	inner_depth_mm: ['depth'],
 	inner_height_mm: ['height'],
+	specimen_top_mm: ['specimen top', 'top of specimen'],
 	container_material: ['material', 'jar material', 'glass'],
 	closure_type: ['closure', 'lid'],
 	seal_type: ['seal'],
@@ -121,6 +122,7 @@ const FIELDS: Record<ImportField, { key: Key; read: Reader }> = {
 	inner_width_mm: { key: 'innerWidthMm', read: (c) => readMm(c, true) },
 	inner_depth_mm: { key: 'innerDepthMm', read: (c) => readMm(c, false) },
 	inner_height_mm: { key: 'innerHeightMm', read: (c) => readMm(c, true) },
+	specimen_top_mm: { key: 'specimenTopMm', read: (c) => readMm(c, false) },
 	container_material: { key: 'containerMaterial', read: (c) => readTerm(c, LABELS.material) },
 	closure_type: { key: 'closureType', read: (c) => readTerm(c, LABELS.closure) },
 	seal_type: { key: 'sealType', read: (c) => readTerm(c, LABELS.seal) },

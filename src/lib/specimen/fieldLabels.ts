@@ -11,6 +11,7 @@ export const FIELD_LABELS: Record<string, string> = {
 	innerWidthMm: 'Inner width (mm)',
 	innerDepthMm: 'Inner depth (mm)',
 	innerHeightMm: 'Inner height (mm)',
+	specimenTopMm: 'Top of the specimen (mm)',
 	containerMaterial: 'Material',
 	closureType: 'Closure',
 	sealType: 'Seal',

@@ -10,19 +10,26 @@ export const SORT_KEYS = ['objectNumber', 'title', 'location', 'preservativeKind
 export type SortKey = (typeof SORT_KEYS)[number];
 
 export const DUE_FILTERS = ['overdue', 'within-90-days', 'not-set'] as const;
+/** Jars with a condition check in this state (the overview's "checks in review" opens this view). */
+export const CHECK_FILTERS = ['in-review', 'draft', 'returned'] as const;
 
 const optional = <T extends z.ZodType>(s: T) => z.preprocess((v) => (v === '' || v === null ? undefined : v), s.optional());
 
 export const RegisterQuerySchema = z.object({
 	q: optional(z.string().trim().max(100, 'Search for at most 100 characters.')),
 	location: optional(z.uuid('Unknown storage location.')),
+	/** The collection or department, exactly as recorded. */
+	department: optional(z.string().trim().max(120, 'A department has at most 120 characters.')),
 	preservative: optional(z.enum(PRESERVATIVE_KINDS)),
 	seal: optional(z.enum(SEAL_TYPES)),
 	shape: optional(z.enum(CONTAINER_SHAPES)),
 	hazard: optional(z.enum(HAZARD_FLAGS)),
 	due: optional(z.enum(DUE_FILTERS)),
-	grade: optional(z.enum(GRADES)),
-	priority: optional(z.enum(PRIORITIES)),
+	grade: optional(z.enum([...GRADES, 'not-checked'])),
+	priority: optional(z.enum([...PRIORITIES, 'not-set'])),
+	check: optional(z.enum(CHECK_FILTERS)),
+	/** Jars a store's flammable total counts: flammable spirit, and unknown fluids presumed flammable. */
+	flammable: optional(z.enum(['yes'])),
 	sort: z.enum(SORT_KEYS).catch('objectNumber'),
 	dir: z.enum(['asc', 'desc']).catch('asc'),
 	page: z.coerce.number().int().min(1).max(100_000).catch(1),

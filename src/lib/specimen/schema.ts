@@ -43,6 +43,8 @@ export const SpecimenSchema = z
 		innerWidthMm: mm,
 		innerDepthMm: mm.nullable().default(null),
 		innerHeightMm: mm,
+		/** The top of the specimen above the inner base, as the level is measured; forecasts need it. */
+		specimenTopMm: mm.nullable().default(null),
 		containerMaterial: z.enum(CONTAINER_MATERIALS),
 		closureType: z.enum(CLOSURE_TYPES),
 		sealType: z.enum(SEAL_TYPES),
@@ -59,6 +61,9 @@ export const SpecimenSchema = z
 		}
 		if (s.containerShape === 'oval' && s.innerDepthMm !== null && s.innerDepthMm > s.innerWidthMm) {
 			ctx.addIssue({ code: 'custom', path: ['innerDepthMm'], message: 'The minor axis cannot exceed the major axis.' });
+		}
+		if (s.specimenTopMm !== null && s.specimenTopMm > s.innerHeightMm) {
+			ctx.addIssue({ code: 'custom', path: ['specimenTopMm'], message: 'The top of the specimen cannot be above the inner height.' });
 		}
 		const flags = s.hazards.map((h) => h.flag);
 		if (new Set(flags).size !== flags.length) {

@@ -17,6 +17,7 @@ export const SpecimenViewSchema = z.object({
 	innerWidthMm: z.number(),
 	innerDepthMm: z.number().nullable(),
 	innerHeightMm: z.number(),
+	specimenTopMm: z.number().nullable(),
 	containerMaterial: z.enum(CONTAINER_MATERIALS),
 	closureType: z.enum(CLOSURE_TYPES),
 	sealType: z.enum(SEAL_TYPES),

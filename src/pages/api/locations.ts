@@ -4,11 +4,12 @@ import { z } from 'zod';
 import { json, problem, readJson } from '../../lib/server/http.ts';
 import { StorageLocation } from '../../lib/server/models/index.ts';
 import { audit } from '../../lib/server/audit.ts';
+import { locationView } from '../../lib/server/locations/service.ts';
 
-/** The storage locations, for forms and filters; the administrator adds new ones. */
+/** The storage locations with their limits, for forms, filters and the Lists page; the administrator adds new ones. */
 export const GET: APIRoute = async () => {
 	const rows = await StorageLocation.findAll({ order: [['code', 'ASC']] });
-	return json({ locations: rows.map((l) => ({ id: l.id, code: l.code, name: l.name, notes: l.notes })) });
+	return json({ locations: rows.map(locationView) });
 };
 
 const LocationSchema = z
@@ -25,7 +26,7 @@ export const POST: APIRoute = async ({ request, locals, clientAddress }) => {
 	try {
 		const l = await StorageLocation.create(body.value);
 		await audit({ action: 'location.create', entityType: 'location', entityId: l.id, actorId: locals.user!.id, after: body.value, clientAddress });
-		return json({ location: { id: l.id, code: l.code, name: l.name, notes: l.notes } }, 201);
+		return json({ location: locationView(l) }, 201);
 	} catch (err) {
 		if (err instanceof UniqueConstraintError) return problem(409, `A location with code ${body.value.code} exists already.`);
 		throw err;

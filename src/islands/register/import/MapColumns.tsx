@@ -29,6 +29,7 @@ const FIELD_LABELS: Record<ImportField, string> = {
 	seal_type: 'Seal',
 	hazards: 'Hazards',
 	next_check_due: 'Next check due (YYYY-MM-DD)',
+	specimen_top_mm: 'Top of the specimen (mm above the inner base)',
 };
 
 /** Step 2: for each column of the file, the field it fills, starting from the server's guess. */

@@ -27,6 +27,8 @@ export class Specimen extends Model<InferAttributes<Specimen>, InferCreationAttr
 	declare innerWidthMm: number;
 	declare innerDepthMm: number | null;
 	declare innerHeightMm: number;
+	/** The top of the specimen above the inner base, mm, as measured on the jar; null: not measured. */
+	declare specimenTopMm: CreationOptional<number | null>;
 	declare containerMaterial: ContainerMaterial;
 	declare closureType: ClosureType;
 	declare sealType: SealType;
@@ -64,6 +66,7 @@ export class Specimen extends Model<InferAttributes<Specimen>, InferCreationAttr
 				innerWidthMm: mm('innerWidthMm', false),
 				innerDepthMm: mm('innerDepthMm', true),
 				innerHeightMm: mm('innerHeightMm', false),
+				specimenTopMm: mm('specimenTopMm', true),
 				containerMaterial: { type: DataTypes.STRING(14), allowNull: false },
 				closureType: { type: DataTypes.STRING(24), allowNull: false },
 				sealType: { type: DataTypes.STRING(10), allowNull: false },

@@ -17,6 +17,7 @@ export function exportRow(s: SpecimenView): string[] {
 		s.preservativeKind, s.containerShape, String(s.innerWidthMm), s.innerDepthMm === null ? '' : String(s.innerDepthMm),
 		String(s.innerHeightMm), s.containerMaterial, s.closureType, s.sealType,
 		s.hazards.map((h) => (h.note ? `${h.flag}: ${h.note}` : h.flag)).join(' | '), s.nextCheckDue ?? '',
+		s.specimenTopMm === null ? '' : String(s.specimenTopMm),
 	].map(defuse);
 }
 

@@ -195,6 +195,7 @@ function stored(r: SpecimenRecord): SpecimenRecord {
 		innerWidthMm: tenth(r.innerWidthMm),
 		innerDepthMm: r.innerDepthMm === null ? null : tenth(r.innerDepthMm),
 		innerHeightMm: tenth(r.innerHeightMm),
+		specimenTopMm: r.specimenTopMm === null ? null : tenth(r.specimenTopMm),
 		// A fresh array for JSONB, so Sequelize sees the change (STACK.md).
 		hazards: r.hazards.map((h) => ({ ...h })),
 	};

@@ -16,6 +16,7 @@ export function specimenView(s: Specimen & { location?: StorageLocation | null }
 		innerWidthMm: s.innerWidthMm,
 		innerDepthMm: s.innerDepthMm,
 		innerHeightMm: s.innerHeightMm,
+		specimenTopMm: s.specimenTopMm ?? null,
 		containerMaterial: s.containerMaterial,
 		closureType: s.closureType,
 		sealType: s.sealType,

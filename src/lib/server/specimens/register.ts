@@ -1,8 +1,10 @@
 import { Op, literal, type Order, type WhereOptions } from 'sequelize';
+import { db } from '../db.ts';
 import { Specimen, StorageLocation } from '../models/index.ts';
 import type { RegisterQuery, SortKey } from '../../specimen/query.ts';
 import type { RegisterPage } from '../../specimen/view.ts';
 import { specimenView } from './presenter.ts';
+import { countedFlammableSql } from '../overview/sql.ts';
 
 /**
  * The register query: filters and search in SQL (parameterised; the search text is escaped for
@@ -29,6 +31,7 @@ export function registerWhere(q: RegisterQuery, today = new Date()): WhereOption
 		and.push({ [Op.or]: [{ objectNumber: { [Op.iLike]: like } }, { title: { [Op.iLike]: like } }, { department: { [Op.iLike]: like } }] });
 	}
 	if (q.location) and.push({ storageLocationId: q.location });
+	if (q.department) and.push({ department: q.department });
 	if (q.preservative) and.push({ preservativeKind: q.preservative });
 	if (q.seal) and.push({ sealType: q.seal });
 	if (q.shape) and.push({ containerShape: q.shape });
@@ -40,8 +43,10 @@ export function registerWhere(q: RegisterQuery, today = new Date()): WhereOption
 		and.push({ nextCheckDue: { [Op.gte]: day, [Op.lt]: until } });
 	}
 	if (q.due === 'not-set') and.push({ nextCheckDue: null });
-	if (q.grade) and.push({ currentGrade: q.grade });
-	if (q.priority) and.push({ currentPriority: q.priority });
+	if (q.grade) and.push({ currentGrade: q.grade === 'not-checked' ? null : q.grade });
+	if (q.priority) and.push({ currentPriority: q.priority === 'not-set' ? null : q.priority });
+	if (q.check) and.push(literal(`EXISTS (SELECT 1 FROM condition_checks c WHERE c.specimen_id = "Specimen"."id" AND c.state = ${db().escape(q.check)})`));
+	if (q.flammable) and.push(literal(countedFlammableSql('"Specimen"')));
 	return { [Op.and]: and };
 }
 
