@@ -36,7 +36,8 @@ export function demoLayer(t: JarPhotoTruth, parts: Record<Part, PartRecord>, aut
 		},
 		lid: () => ({ kind: 'pin', at: [cx + 0.45 * rx, rimY - 12] }),
 		container: () => ({ kind: 'path', points: [[cx + 0.8 * rx, rimY + 0.25 * span], [cx + 0.74 * rx, rimY + 0.33 * span], [cx + 0.78 * rx, rimY + 0.42 * span]] }),
-		fluid: (term) => (term.includes('level') ? { kind: 'pin', at: [cx, Math.min(fluidLineY, innerBaseY - 4)] } : { kind: 'box', x: cx - 0.6 * rx, y: Math.min(fluidLineY, innerBaseY - 20) + 8, w: 0.5 * rx, h: Math.max(12, 0.12 * span) }),
+		// A low level is pinned in the headspace under the rim (the level lines measure it); other fluid findings get a box in the fluid.
+		fluid: (term) => (term.includes('level') ? { kind: 'pin', at: [cx + 0.3 * rx, rimY + 0.05 * span] } : { kind: 'box', x: cx - 0.6 * rx, y: Math.min(fluidLineY, innerBaseY - 20) + 8, w: 0.5 * rx, h: Math.max(12, 0.12 * span) }),
 		specimen: () => {
 			const y = specimenTopY + 0.12 * span;
 			return { kind: 'outline', points: [[cx - 0.18 * rx, y], [cx + 0.05 * rx, y - 0.04 * span], [cx + 0.2 * rx, y + 0.05 * span], [cx - 0.1 * rx, y + 0.1 * span]] };

@@ -8,6 +8,7 @@ import { db } from '../../src/lib/server/db.ts';
 import { analysePair, summaryOf, type ComparedPhoto, type ControlPair } from '../../src/lib/compare/index.ts';
 import type { ComparisonSourcePhoto, ComparisonSources, ComparisonView, FluidColourAnswer } from '../../src/lib/compare/view.ts';
 import type { Mark, MarkLayer } from '../../src/lib/marks/schema.ts';
+import { NO_FLUID_MARK } from '../../src/lib/server/compare/fluidColour.ts';
 
 /**
  * Saved photo comparisons through the API: who may read and save them, bad input refused with
@@ -319,7 +320,7 @@ describe('the fluid colour of a photograph', () => {
 	});
 
 	it('says what to mark on a photograph without a fluid outline', async () => {
-		expect(await fluidColour(strangerId)).toEqual({ problem: 'Outline the fluid (part Fluid) on this photograph to measure its colour.' });
+		expect(await fluidColour(strangerId)).toEqual({ problem: NO_FLUID_MARK });
 	});
 
 	it('is measured but not trusted without a grey reference', async () => {

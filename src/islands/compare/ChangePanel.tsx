@@ -78,6 +78,7 @@ export function ChangePanel({ analysis }: { analysis: Analysis }) {
 				{colour.change ? (
 					<p data-testid="colour-change">
 						<span className="font-semibold">Colour: </span>ΔE00 {n2(colour.change.deltaE00)}; yellowness (ASTM E313) {n1(colour.before!.yellowness)} → {n1(colour.after!.yellowness)} ({signed(colour.change.deltaYellowness)})
+						{'measuredIn' in colour.before! && <span className="block text-ink-600">Measured in {String((colour.before as { measuredIn?: string }).measuredIn)} on each photograph, white-balanced on its grey card.</span>}
 						{!colour.change.reliable && <span className="block text-alert-700">Unreliable: {colour.change.reasons.join(' ')}</span>}
 					</p>
 				) : (

@@ -2,7 +2,6 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api, ApiError } from '../../lib/client/api.ts';
 import type { Role } from '../../lib/auth/roles.ts';
-import type { FluidColour } from '../../lib/colour/index.ts';
 import { analysePair } from '../../lib/compare/analysis.ts';
 import { pairsFromControlMarks } from '../../lib/compare/pairs.ts';
 import { MAX_PAIRS, type ControlPair, type RegistrationModel } from '../../lib/compare/schema.ts';
@@ -16,7 +15,7 @@ import { drawChanges, drawControlPoints } from './drawOverlay.ts';
 import { usePanZoom } from './usePanZoom.ts';
 import { useLoadedImage } from './useLoadedImage.ts';
 import { warpToBefore } from './warp.ts';
-import { dateOf, photoLabel, type SavedComparison, type SourcePhoto, type Sources } from './types.ts';
+import { dateOf, photoLabel, type FluidColourAnswer, type SavedComparison, type SourcePhoto, type Sources } from './types.ts';
 
 /**
  * Two photographs of one specimen, compared: placed control points line them up (a perspective or
@@ -97,7 +96,7 @@ function Workspace({ specimenId, userId, role, sources, saved, before: askBefore
 
 	const colourOf = (p: SourcePhoto) => ({
 		queryKey: ['fluid-colour', p.id, p.layer.version],
-		queryFn: () => api<{ colour: FluidColour | { problem: string } }>(`/api/photos/${p.id}/fluid-colour`).then((r) => r.colour),
+		queryFn: () => api<{ colour: FluidColourAnswer }>(`/api/photos/${p.id}/fluid-colour`).then((r) => r.colour),
 	});
 	const colourBefore = useQuery(colourOf(before));
 	const colourAfter = useQuery(colourOf(after));

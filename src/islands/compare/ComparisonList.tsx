@@ -2,22 +2,10 @@ import { useQuery } from '@tanstack/react-query';
 import { api } from '../../lib/client/api.ts';
 import { CHANGE_CLASSES } from '../../lib/compare/changes.ts';
 import { CHANGE_STYLE } from '../../lib/compare/changeStyle.ts';
-import type { RegistrationModel } from '../../lib/compare/schema.ts';
+import type { ComparisonListItem } from './types.ts';
 import { QueryRoot } from '../QueryRoot.tsx';
 
 /** On the specimen's page: the way into comparing its photographs, and the comparisons kept so far. */
-interface Listed {
-	id: string;
-	beforePhotoId: string;
-	afterPhotoId: string;
-	beforeDate: string | null;
-	afterDate: string | null;
-	model: RegistrationModel;
-	counts: Record<(typeof CHANGE_CLASSES)[number], number>;
-	createdBy: { name: string };
-	updatedAt: string;
-}
-
 export default function ComparisonList({ specimenId }: { specimenId: string }) {
 	return (
 		<QueryRoot>
@@ -27,7 +15,7 @@ export default function ComparisonList({ specimenId }: { specimenId: string }) {
 }
 
 function List({ specimenId }: { specimenId: string }) {
-	const list = useQuery({ queryKey: ['comparisons', specimenId], queryFn: () => api<{ comparisons: Listed[] }>(`/api/specimens/${specimenId}/comparisons`) });
+	const list = useQuery({ queryKey: ['comparisons', specimenId], queryFn: () => api<{ comparisons: ComparisonListItem[] }>(`/api/specimens/${specimenId}/comparisons`) });
 	return (
 		<section className="card space-y-3" aria-labelledby="comparisons-heading" data-testid="comparisons">
 			<div className="flex flex-wrap items-center justify-between gap-2">

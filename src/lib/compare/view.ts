@@ -35,8 +35,10 @@ export interface ComparisonSources {
 	photos: ComparisonSourcePhoto[];
 }
 
-/** GET /api/photos/[id]/fluid-colour answers { colour: FluidColourAnswer }, ready for analysePair's `colour`. */
-export type FluidColourAnswer = FluidColour | { problem: string };
+/**
+ * GET /api/photos/[id]/fluid-colour answers { colour: FluidColourAnswer }, ready for analysePair's
+ * `colour`; `measuredIn` says where: a fluid mark, or the clear fluid between two level lines. */
+export type FluidColourAnswer = (FluidColour & { measuredIn?: string }) | { problem: string };
 
 export interface PersonRef {
 	id: string;

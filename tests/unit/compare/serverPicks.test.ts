@@ -21,12 +21,25 @@ describe('the fluid regions of a layer', () => {
 			{ id: 'grey-2', kind: 'grey', x: 9, y: 9, w: 50, h: 50, ...stamp },
 		]);
 		const { fluid, grey } = fluidRegions(l);
-		expect(fluid?.id).toBe('big-outline');
+		expect(fluid).toMatchObject({ kind: 'outline', points: [[0, 0], [30, 0], [30, 30], [0, 30]], from: 'the fluid mark “discoloured”' });
 		expect(grey?.id).toBe('grey-1');
 	});
 
-	it('finds nothing to measure in a layer without a fluid outline or box', () => {
+	it('finds nothing to measure in a layer without a fluid outline or box, or the two level lines', () => {
 		expect(fluidRegions(layer([{ id: 'pin', kind: 'pin', part: 'fluid', term: 'low level / evaporation', at: [5, 5], ...damage }]))).toEqual({ fluid: null, grey: null });
+	});
+
+	it('otherwise samples the clear fluid between the fluid line and the specimen’s top', () => {
+		// Fluid line at y = 100, specimen top at y = 300, both from x = 0 to 1000: the band's middle
+		// is x 200–800 and y 150–250 (a quarter and three quarters of the way down).
+		const lines = (topY: number) =>
+			layer([
+				{ id: 'f', kind: 'level', level: 'fluid-line', from: [0, 100], to: [1000, 100], ...stamp },
+				{ id: 's', kind: 'level', level: 'specimen-top', from: [0, topY], to: [1000, topY], ...stamp },
+			]);
+		expect(fluidRegions(lines(300)).fluid).toMatchObject({ kind: 'outline', points: [[200, 150], [800, 150], [800, 250], [200, 250]] });
+		// The specimen standing out of the fluid leaves no clear fluid above it.
+		expect(fluidRegions(lines(90)).fluid).toBeNull();
 	});
 });
 
