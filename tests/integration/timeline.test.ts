@@ -43,9 +43,13 @@ describe('a specimen’s history', () => {
 		// Strength is drawn for the open check too, but only the approved ones are fitted.
 		expect(t.series.strength.points.map((p) => p.used)).toEqual([true, true, true, false]);
 		expect(t.series.strength.threshold).toBe(65);
-		// The slot for fluid colour is there, empty until src/lib/colour measures it.
-		expect(t.checks.every((c) => c.yellowness === null)).toBe(true);
-		expect(t.series.yellowness.points).toEqual([]);
+		// Yellowness comes from the checks' front photographs (the test set-up draws the latest check's
+		// only): a spirit yellowed by years of extractives reads well above a white's 0 (ASTM E313).
+		const measured = t.checks.filter((c) => c.yellowness !== null);
+		expect(measured.map((c) => c.id)).toEqual([t.checks.at(-1)!.id]);
+		expect(measured[0]!.yellowness).toBeGreaterThan(10);
+		expect(measured[0]!.yellowness).toBeLessThan(150);
+		expect(t.series.yellowness.points.map((p) => p.value)).toEqual([measured[0]!.yellowness]);
 	});
 
 	it('says so when a jar has too few readings for a trend', async () => {

@@ -72,7 +72,7 @@ function Body({ t, photos }: { t: Timeline; photos: PhotoRecord[] }) {
 			<div className="text-sm text-ink-700">
 				<h3 className="text-lg font-semibold text-ink-900">Fluid colour</h3>
 				{yellowness.points.length === 0 ? (
-					<p data-testid="no-yellowness">Not measured yet. The yellowness of the fluid (ASTM E313 index), taken from the check photographs, will be drawn here as a third series.</p>
+					<p data-testid="no-yellowness">No yellowness measured: it is taken from each check’s front photograph, white-balanced on its grey card, inside a fluid mark or the clear fluid between the fluid line and the specimen’s top.</p>
 				) : (
 					<SeriesChart series={yellowness} title="Yellowness index (ASTM E313)" format={(v) => v.toFixed(1)} testId="chart-yellowness" />
 				)}

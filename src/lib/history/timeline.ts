@@ -12,13 +12,14 @@ import type { Series, Timeline, TimelineCheck } from './schema.ts';
  * approved check corrects are fitted; open checks are drawn so the latest visit shows, but a draft's
  * numbers are not trusted yet. Trends start at the first reading after the last top-up.
  */
-export function buildTimeline(s: SpecimenView, checksNewestFirst: readonly CheckView[], today: string): Timeline {
+/** `yellowness`: the fluid's ASTM E313 index per check id, measured on that check's front photograph (server/history). */
+export function buildTimeline(s: SpecimenView, checksNewestFirst: readonly CheckView[], today: string, yellowness: ReadonlyMap<string, number> = new Map()): Timeline {
 	const checks = [...checksNewestFirst].reverse();
 	const correctedIds = new Set(checks.filter((c) => c.state === 'approved' && c.correctsCheckId).map((c) => c.correctsCheckId!));
 	const trusted = (c: CheckView) => c.state === 'approved' && !correctedIds.has(c.id);
 	const jar = { shape: s.containerShape, widthMm: s.innerWidthMm, depthMm: s.innerDepthMm, heightMm: s.innerHeightMm };
 	const perMm = mlPerMm(jar);
-	const rows = checks.map((c) => timelineCheck(c, correctedIds.has(c.id)));
+	const rows = checks.map((c) => timelineCheck(c, correctedIds.has(c.id), yellowness.get(c.id) ?? null));
 
 	const readings = (value: (c: TimelineCheck) => number | null) =>
 		rows.flatMap((c, i) => {
@@ -60,7 +61,7 @@ export function buildTimeline(s: SpecimenView, checksNewestFirst: readonly Check
 }
 
 /** One check as the timeline shows it (a presenter over the check's own view). */
-export function timelineCheck(c: CheckView, corrected: boolean): TimelineCheck {
+export function timelineCheck(c: CheckView, corrected: boolean, yellowness: number | null = null): TimelineCheck {
 	const f = c.fluid;
 	return {
 		id: c.id,
@@ -72,8 +73,7 @@ export function timelineCheck(c: CheckView, corrected: boolean): TimelineCheck {
 		parts: Object.fromEntries(PARTS.map((p) => [p, c.parts[p]?.grade ?? null])) as TimelineCheck['parts'],
 		examiner: c.examiner.name,
 		fluid: f ? { levelMm: f.levelMm, realPercentVol: f.realPercentVol, tempC: f.tempC, pH: f.pH, formaldehyde: f.formaldehyde } : null,
-		// Not measured yet: src/lib/colour will give the ASTM E313 index of the fluid on the front photograph.
-		yellowness: null,
+		yellowness,
 		corrected,
 	};
 }
