@@ -83,7 +83,14 @@ export function analysePair(
 /** What is stored with a saved comparison: the figures, not the marks themselves (those stay in their layers). */
 export function summaryOf(a: Analysis) {
 	return {
-		registration: { model: a.registration.model, rmsPx: a.registration.residuals?.rms ?? null, bad: a.registration.residuals?.bad.map((b) => b.n) ?? [], problem: a.registration.problem },
+		registration: {
+			model: a.registration.model,
+			// Each pair's error after the fit, in the order of the control points, px of the earlier photograph.
+			errorsPx: a.registration.residuals?.errors ?? [],
+			rmsPx: a.registration.residuals?.rms ?? null,
+			bad: a.registration.residuals?.bad.map((b) => b.n) ?? [],
+			problem: a.registration.problem,
+		},
 		aligned: a.aligned,
 		counts: a.changes.summary.counts,
 		basis: a.changes.basis,
