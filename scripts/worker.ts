@@ -1,6 +1,8 @@
 // The photo worker: takes ingest jobs from the PostgreSQL queue (pg-boss), and at start and every
 // few minutes runs the reconciler and a fixity pass (re-hashing masters checked longest ago). A process of its own, so that decoding a flood of large photos
 // never holds up the web server, and so that more workers can run on other machines later.
+// It also sends the daily digest of checks coming due (a pg-boss schedule; once per user per day
+// however many workers run, see src/lib/server/mail/digest.ts).
 // Started by `npm start` and by the tests; `npm run worker` runs one by hand.
 import { config } from '../src/lib/server/config.ts';
 import { db, closeDb } from '../src/lib/server/db.ts';
@@ -10,6 +12,7 @@ import { reconcile } from '../src/lib/server/photos/reconcile.ts';
 import { fixityPass } from '../src/lib/server/photos/fixity.ts';
 import { configureSharp } from '../src/lib/server/photos/pipeline.ts';
 import { ensureDirs } from '../src/lib/server/photos/storage.ts';
+import { DIGEST_CRON, DIGEST_QUEUE, digestDate, runDueDigest } from '../src/lib/server/mail/digest.ts';
 
 const log = (m: string) => console.log(`${new Date().toISOString()} ${m}`);
 const cfg = config();
@@ -26,6 +29,13 @@ for (let i = 0; i < cfg.MENISCUS_PHOTO_JOBS; i++) {
 		log(`${job.data.uploadId}: ${outcome.state}${'reason' in outcome ? ` (${outcome.code}: ${outcome.reason})` : ''}${'why' in outcome ? ` (${outcome.why})` : ''} in ${Date.now() - started} ms`);
 	});
 }
+
+await boss.createQueue(DIGEST_QUEUE, { name: DIGEST_QUEUE, policy: 'standard', retryLimit: 3, retryDelay: 300, expireInMinutes: 30 });
+await boss.schedule(DIGEST_QUEUE, DIGEST_CRON, undefined, { tz: 'UTC' });
+await boss.work(DIGEST_QUEUE, { batchSize: 1 }, async () => {
+	const date = digestDate();
+	log(`due digest ${date}: ${await runDueDigest(date)} queued`);
+});
 
 let running = false;
 async function pass() {

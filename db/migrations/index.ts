@@ -6,6 +6,7 @@ import * as storeLimits from './20261205000000-store-limits.ts';
 import * as specimenTop from './20261205000100-specimen-top.ts';
 import * as correctionsIndex from './20261205000200-check-corrections-index.ts';
 import * as comparisons from './20261206000000-comparisons.ts';
+import * as mailPreferences from './20261207000000-mail-preferences.ts';
 
 /**
  * Every migration, in order. Listed by static import rather than found by a file glob, so that
@@ -21,4 +22,5 @@ export const MIGRATIONS = [
 	{ name: '20261205000100-specimen-top.ts', ...specimenTop },
 	{ name: '20261205000200-check-corrections-index.ts', ...correctionsIndex },
 	{ name: '20261206000000-comparisons.ts', ...comparisons },
+	{ name: '20261207000000-mail-preferences.ts', ...mailPreferences },
 ];

@@ -13,6 +13,9 @@ export function useTestDatabase(): void {
 	process.env.MENISCUS_PUBLIC_URL = inject('baseUrl');
 	process.env.MENISCUS_MAILBOX_DIR = inject('mailboxDir');
 	process.env.MENISCUS_UPLOADS_DIR = inject('uploadsDir');
+	// Mail this process queues (tests that call the server modules) goes to the same fake SMTP.
+	process.env.SMTP_HOST = inject('serverEnv').SMTP_HOST!;
+	process.env.SMTP_PORT = inject('serverEnv').SMTP_PORT!;
 }
 
 export interface Req {

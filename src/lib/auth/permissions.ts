@@ -32,6 +32,9 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/': { GET: 'signed-in' },
 	'/api/me': { GET: 'signed-in' },
 	'/api/home': { GET: 'signed-in' },
+	// One's own mail settings (the optional check mails); the route knows only the signed-in user.
+	'/account/mail': { GET: 'signed-in' },
+	'/api/me/mail-preferences': { GET: 'signed-in', PATCH: 'signed-in' },
 	// The collection overview: the curator's home, and a page of its own for conservators and reviewers.
 	'/overview': { GET: COLLECTION },
 	'/api/overview': { GET: COLLECTION },

@@ -3,6 +3,7 @@ import { db } from '../db.ts';
 import { ConditionCheck, Specimen, User } from '../models/index.ts';
 import type { PartRecord, StoredFluid } from '../models/ConditionCheck.ts';
 import { audit } from '../audit.ts';
+import { mailCheckReviewed, mailCheckSubmitted } from '../mail/checkMail.ts';
 import { checkView } from './presenter.ts';
 import { intervals } from './settings.ts';
 import { decideTransition, type Actor, type CheckAction } from '../../check/workflow.ts';
@@ -170,6 +171,7 @@ export async function submitCheck(actor: CheckActor, id: string, version: number
 		c.set({ state: next, submittedAt: new Date() });
 		await c.save({ transaction });
 		await audit({ action: 'check.submit', entityType: 'check', entityId: id, actorId: actor.id, before: { state: 'draft' }, after: { state: next }, clientAddress: actor.clientAddress }, transaction);
+		await mailCheckSubmitted(c, transaction);
 		return view(id, transaction);
 	});
 }
@@ -182,6 +184,7 @@ export async function reviewCheck(actor: CheckActor, id: string, decision: 'appr
 		await c.save({ transaction });
 		if (next === 'approved') await applyToSpecimen(c, transaction);
 		await audit({ action: `check.${decision}`, entityType: 'check', entityId: id, actorId: actor.id, before: { state: 'in-review' }, after: { state: next, comment }, clientAddress: actor.clientAddress }, transaction);
+		await mailCheckReviewed(c, decision, transaction);
 		return view(id, transaction);
 	});
 }

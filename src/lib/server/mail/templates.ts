@@ -29,3 +29,125 @@ export function resetMail(to: string, name: string, link: string, hours: number)
 		`The link works once and for ${hours} hours. If it was not you, ignore this message: your password stays as it is.`,
 	);
 }
+
+// Check notifications and the digest: plain text plus a simple HTML part with the same words.
+// No images, no tracking, no styles beyond what a mail reader shows by default.
+
+const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+/** Subjects hold object numbers and names: keep them on one line whatever the record says. */
+const oneLine = (s: string) => s.replace(/[\u0000-\u001f\u007f]+/g, ' ').trim();
+
+type Block = { p: string } | { link: string } | { quote: string } | { list: string[] };
+
+function composed(to: string, subject: string, name: string, blocks: Block[], footer: string): MailInput {
+	const text: string[] = [`Hello ${name},`];
+	const html: string[] = [`<p>Hello ${escapeHtml(name)},</p>`];
+	for (const b of [...blocks, { p: footer }]) {
+		text.push('');
+		if ('p' in b) {
+			text.push(b.p);
+			html.push(`<p>${escapeHtml(b.p)}</p>`);
+		} else if ('link' in b) {
+			text.push(b.link);
+			html.push(`<p><a href="${escapeHtml(b.link)}">${escapeHtml(b.link)}</a></p>`);
+		} else if ('quote' in b) {
+			text.push(...b.quote.split('\n').map((l) => `> ${l}`));
+			html.push(`<blockquote>${escapeHtml(b.quote).replaceAll('\n', '<br>')}</blockquote>`);
+		} else {
+			text.push(...b.list.map((l) => `- ${l}`));
+			html.push(`<ul>${b.list.map((l) => `<li>${escapeHtml(l)}</li>`).join('')}</ul>`);
+		}
+	}
+	return { to, subject: oneLine(subject), text: text.join('\n'), html: `<!doctype html><html><body>${html.join('\n')}</body></html>` };
+}
+
+const PREFS_FOOTER = (origin: string) => `You get this mail because it is turned on in your mail settings: ${origin}/account/mail`;
+
+export interface CheckMailFacts {
+	objectNumber: string;
+	title: string;
+	checkedOn: string;
+	link: string;
+	origin: string;
+}
+
+export function checkSubmittedMail(to: string, name: string, c: CheckMailFacts, examiner: string): MailInput {
+	return composed(
+		to,
+		`Check of ${c.objectNumber} waiting for review`,
+		name,
+		[{ p: `${examiner} has submitted the condition check of ${c.objectNumber} (${c.title}), examined on ${c.checkedOn}. It is waiting for review:` }, { link: c.link }],
+		PREFS_FOOTER(c.origin),
+	);
+}
+
+export function checkReturnedMail(to: string, name: string, c: CheckMailFacts, reviewer: string, comment: string): MailInput {
+	return composed(
+		to,
+		`Check of ${c.objectNumber} returned with comments`,
+		name,
+		[
+			{ p: `${reviewer} has returned your condition check of ${c.objectNumber} (${c.title}), examined on ${c.checkedOn}, with this comment:` },
+			{ quote: comment },
+			{ p: 'Edit the check and submit it again here:' },
+			{ link: c.link },
+		],
+		PREFS_FOOTER(c.origin),
+	);
+}
+
+export function checkApprovedMail(to: string, name: string, c: CheckMailFacts, reviewer: string, comment: string | null): MailInput {
+	return composed(
+		to,
+		`Check of ${c.objectNumber} approved`,
+		name,
+		[
+			{ p: `${reviewer} has approved your condition check of ${c.objectNumber} (${c.title}), examined on ${c.checkedOn}.` },
+			...(comment ? [{ quote: comment }] : []),
+			{ link: c.link },
+		],
+		PREFS_FOOTER(c.origin),
+	);
+}
+
+export interface DigestLine {
+	objectNumber: string;
+	title: string;
+	due: string;
+	link: string;
+}
+
+export interface DigestFacts {
+	date: string;
+	overdue: { shown: DigestLine[]; total: number };
+	dueSoon: { shown: DigestLine[]; total: number };
+	days: number;
+	registerLink: string;
+	origin: string;
+}
+
+function digestGroup(heading: string, g: DigestFacts['overdue']): Block[] {
+	if (g.total === 0) return [];
+	const more = g.total - g.shown.length;
+	return [
+		{ p: `${heading} (${g.total}):` },
+		{ list: g.shown.map((l) => `${l.objectNumber}, ${l.title}: due ${l.due}, ${l.link}`) },
+		...(more > 0 ? [{ p: `… and ${more} more.` }] : []),
+	];
+}
+
+export function dueDigestMail(to: string, name: string, d: DigestFacts): MailInput {
+	return composed(
+		to,
+		`Checks coming due: ${d.overdue.total} overdue, ${d.dueSoon.total} within ${d.days} days`,
+		name,
+		[
+			{ p: `The condition checks of the collection that are overdue or due within ${d.days} days, as of ${d.date}:` },
+			...digestGroup('Overdue', d.overdue),
+			...digestGroup(`Due within ${d.days} days`, d.dueSoon),
+			{ p: 'The overdue jars, in the register:' },
+			{ link: d.registerLink },
+		],
+		PREFS_FOOTER(d.origin),
+	);
+}

@@ -10,6 +10,8 @@ export class OutgoingMail extends Model<InferAttributes<OutgoingMail>, InferCrea
 	declare toAddress: string;
 	declare subject: string;
 	declare textBody: string;
+	/** The simple HTML part, or null for plain-text-only mail. */
+	declare htmlBody: CreationOptional<string | null>;
 	declare status: CreationOptional<'queued' | 'sent' | 'failed'>;
 	declare attempts: CreationOptional<number>;
 	declare nextAttemptAt: CreationOptional<Date>;
@@ -24,6 +26,7 @@ export class OutgoingMail extends Model<InferAttributes<OutgoingMail>, InferCrea
 				toAddress: { type: DataTypes.STRING(254), allowNull: false },
 				subject: { type: DataTypes.STRING(300), allowNull: false },
 				textBody: { type: DataTypes.TEXT, allowNull: false },
+				htmlBody: { type: DataTypes.TEXT, allowNull: true },
 				status: { type: DataTypes.STRING(10), allowNull: false, defaultValue: 'queued' },
 				attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
 				nextAttemptAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },

@@ -5,6 +5,7 @@ import { ConditionCheck } from './ConditionCheck.ts';
 import { DamageTerm } from './DamageTerm.ts';
 import { GradeInterval } from './GradeInterval.ts';
 import { LoginThrottle } from './LoginThrottle.ts';
+import { MailPreference } from './MailPreference.ts';
 import { OutgoingMail } from './OutgoingMail.ts';
 import { Photo } from './Photo.ts';
 import { PhotoComparison } from './PhotoComparison.ts';
@@ -17,12 +18,12 @@ import { User } from './User.ts';
 import { UserSession } from './UserSession.ts';
 
 export type { TokenPurpose } from './AuthToken.ts';
-export { AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Photo, PhotoComparison, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, User, UserSession };
+export { AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, MailPreference, OutgoingMail, Photo, PhotoComparison, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, User, UserSession };
 export type { DerivativeKind } from './PhotoDerivative.ts';
 
 /** Binds every model to one connection and declares the associations. */
 export function initModels(sequelize: Sequelize): void {
-	for (const m of [AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, OutgoingMail, Photo, PhotoComparison, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, User, UserSession]) {
+	for (const m of [AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, MailPreference, OutgoingMail, Photo, PhotoComparison, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, User, UserSession]) {
 		m.initModel(sequelize);
 	}
 	Specimen.belongsTo(StorageLocation, { foreignKey: 'storageLocationId', as: 'location' });
