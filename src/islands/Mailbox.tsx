@@ -24,7 +24,7 @@ function Messages() {
 		return <p className="notice-info">This server sends real e-mail; there is no local mailbox to show.</p>;
 	}
 	if (q.data.messages.length === 0) {
-		return <p className="rounded-md border border-dashed border-ink-200 bg-white px-4 py-6">No messages yet. Invitations and password resets will appear here.</p>;
+		return <p className="rounded-md border border-dashed border-ink-200 bg-white px-4 py-6">No messages yet. Invitations, password resets, review mail and the daily digest of checks coming due will appear here.</p>;
 	}
 	return (
 		<ul className="space-y-4">
