@@ -89,6 +89,7 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/photos/[id]/annotations': { GET: 'signed-in', POST: CONSERVATOR },
 	'/api/specimens/[id]/photos': { GET: 'signed-in' },
 	'/api/checks/[id]/photos': { GET: 'signed-in' },
+	'/api/checks/[id]/report.pdf': { GET: 'signed-in' },
 	'/photos/[id]': { GET: 'signed-in' },
 	'/photos/[id]/marks': { GET: 'signed-in' },
 	// Comparing two photographs of a jar: everyone signed in looks; conservators and reviewers save

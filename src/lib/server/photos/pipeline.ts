@@ -153,3 +153,12 @@ export function isDecodeError(err: unknown): boolean {
 export function shortError(err: unknown): string {
 	return (String((err as Error)?.message ?? err).split('\n')[0] ?? '').slice(0, 200);
 }
+
+/** A display copy with an SVG of the same size laid over it, as a JPEG for a printed report. */
+export async function compositeSvg(file: string, svg: string): Promise<Buffer> {
+	return sharp(file, inputOptions)
+		.timeout({ seconds: SHARP_TIMEOUT_S })
+		.composite([{ input: Buffer.from(svg), top: 0, left: 0 }])
+		.jpeg({ quality: 85 })
+		.toBuffer();
+}
