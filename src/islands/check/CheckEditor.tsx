@@ -146,6 +146,11 @@ function Editor({ check, terms, role, userId }: { check: CheckView; terms: Recor
 						{CHECK_LABELS.state[check.state]} · examined by {check.examiner.name}
 						{check.correctsCheckId && ' · corrects an earlier approved check'}
 					</p>
+					<p className="mt-1">
+						<a className="text-glass-700 underline" href={`/api/checks/${check.id}/report.pdf`} download data-testid="report-link">
+							Download the report (PDF)
+						</a>
+					</p>
 				</div>
 				<div className="text-right" data-testid="overall">
 					<p className="text-sm text-ink-700">Overall condition</p>
