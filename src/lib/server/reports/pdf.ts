@@ -24,6 +24,7 @@ const GREY = '#444444';
 export const CAUTION =
 	'Meniscus gives no safety advice of its own. Local regulations, your organisation’s risk assessment and qualified practice govern all work with preserved specimens.';
 
+const FORMALDEHYDE = { 'not-tested': 'Not tested', negative: 'Negative', positive: 'Positive' } as const;
 const dash = (v: string | number | null | undefined) => (v === null || v === undefined || v === '' ? '—' : String(v));
 
 export function reportFileName(d: Pick<ReportData, 'check'>): string {
@@ -121,7 +122,7 @@ export async function reportPdf(d: ReportData): Promise<Buffer> {
 		pairs([
 			['Meter reading', f.readingPercentVol === null ? '—' : `${f.readingPercentVol} % vol at ${dash(f.tempC)} °C (${f.glass} glass meter)`],
 			['Real strength at 20 °C', f.realPercentVol === null ? '—' : `${f.realPercentVol.toFixed(1)} % vol (corrected by the OIML R 22 tables)`],
-			['Formaldehyde test', f.formaldehyde],
+			['Formaldehyde test', FORMALDEHYDE[f.formaldehyde]],
 			['pH', dash(f.pH)],
 			['Fluid level', f.levelMm === null ? '—' : `${f.levelMm} mm above the inner base`],
 			['Method', dash(f.method)],
