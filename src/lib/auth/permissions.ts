@@ -52,6 +52,8 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/specimens/[id]': { GET: 'signed-in', PUT: CONSERVATOR },
 	'/api/specimens/[id]/history': { GET: 'signed-in' },
 	'/api/specimens/[id]/timeline': { GET: 'signed-in' },
+	// Open exports: condition checks as CSV.
+	'/api/checks/export.csv': { GET: 'signed-in' },
 	'/api/locations': { GET: 'signed-in', POST: ADMIN },
 	'/api/locations/[id]': { PATCH: ADMIN },
 	// Condition checks. Conservators open, edit and submit; reviewers approve or return (the workflow
