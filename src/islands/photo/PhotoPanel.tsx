@@ -42,6 +42,10 @@ function SpecimenPhotos({ specimenId, role }: { specimenId: string; role: string
 	return (
 		<Section title="Photographs" error={photos.error}>
 			{photos.data && <PhotoGrid photos={photos.data.photos} empty="No photographs of this specimen yet." />}
+			<p className="text-sm">
+				<a className="text-glass-700 underline" href={`/api/specimens/${specimenId}/manifest`} data-testid="iiif-manifest">IIIF manifest</a>
+				{' '}of these photographs, with their marks: any IIIF viewer the museum runs can open it for someone signed in here.
+			</p>
 			{mayUpload && (
 				<details className="rounded-md border border-ink-100 p-3">
 					<summary className="cursor-pointer text-sm font-semibold">Add photographs of the specimen (outside a check)</summary>

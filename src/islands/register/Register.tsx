@@ -8,6 +8,7 @@ import type { SortKey } from '../../lib/specimen/query.ts';
 import { COLUMNS, DEFAULT_HIDDEN } from './columns.tsx';
 import { Filters } from './Filters.tsx';
 import { useUrlQuery } from './useUrlQuery.ts';
+import { checkExportUrl } from '../../lib/check/exportQuery.ts';
 
 /**
  * The specimen register: server-side search, filters, sort and paging (the view lives in the URL),
@@ -62,6 +63,9 @@ function Table({ canEdit }: { canEdit: boolean }) {
 				)}
 				<a className="btn-secondary" href={`/api/specimens/export?${params}`} download>
 					Export this view (CSV)
+				</a>
+				<a className="btn-secondary" href={checkExportUrl()} download>
+					Export checks (CSV)
 				</a>
 				<details className="relative">
 					<summary className="btn-secondary cursor-pointer list-none">Columns</summary>

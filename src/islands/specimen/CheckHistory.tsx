@@ -3,6 +3,7 @@ import { api, ApiError } from '../../lib/client/api.ts';
 import type { CheckView } from '../../lib/check/view.ts';
 import { CHECK_LABELS, PARTS } from '../../lib/check/vocabulary.ts';
 import { GradeBadge } from '../check/GradeBadge.tsx';
+import { checkExportUrl } from '../../lib/check/exportQuery.ts';
 
 /**
  * Every condition check of a specimen, newest first, each with what changed since the approved check
@@ -19,6 +20,9 @@ export function CheckHistory({ specimenId, canOpen }: { specimenId: string; canO
 		<section className="card" aria-labelledby="checks-h">
 			<div className="flex flex-wrap items-center justify-between gap-3">
 				<h2 id="checks-h" className="text-xl font-semibold">Condition checks</h2>
+				<a className="ml-auto text-sm text-glass-700 underline" href={checkExportUrl({ specimen: specimenId })} download>
+					Export checks (CSV)
+				</a>
 				{canOpen && (
 					<button type="button" className="btn-primary" disabled={open.isPending} onClick={() => open.mutate()}>
 						Open a condition check

@@ -52,6 +52,10 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/specimens/[id]': { GET: 'signed-in', PUT: CONSERVATOR },
 	'/api/specimens/[id]/history': { GET: 'signed-in' },
 	'/api/specimens/[id]/timeline': { GET: 'signed-in' },
+	// Open exports: the specimen's photographs as an IIIF manifest, its mark pages, and checks as CSV.
+	'/api/specimens/[id]/manifest': { GET: 'signed-in' },
+	'/api/specimens/[id]/manifest/annotations/[photo]': { GET: 'signed-in' },
+	'/api/checks/export.csv': { GET: 'signed-in' },
 	'/api/locations': { GET: 'signed-in', POST: ADMIN },
 	'/api/locations/[id]': { PATCH: ADMIN },
 	// Condition checks. Conservators open, edit and submit; reviewers approve or return (the workflow

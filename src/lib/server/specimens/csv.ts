@@ -1,15 +1,12 @@
-import Papa from 'papaparse';
+import { defuse } from '../csvExport.ts';
 import type { SpecimenView } from '../../specimen/view.ts';
 import { IMPORT_FIELDS } from '../../specimen/csvImport.ts';
 
 /**
- * The register as CSV, one specimen a row, columns named as the import expects them. Cells that a
- * spreadsheet would run as a formula (=, +, -, @, tab, CR at the start) get a leading apostrophe
- * (OWASP, "CSV Injection").
+ * The register as CSV, one specimen a row, columns named as the import expects them, formula-like
+ * cells defused (csvExport.ts).
  */
 export const EXPORT_COLUMNS = IMPORT_FIELDS;
-
-const defuse = (v: string) => (/^[=+\-@\t\r]/.test(v) ? `'${v}` : v);
 
 export function exportRow(s: SpecimenView): string[] {
 	return [
@@ -19,8 +16,4 @@ export function exportRow(s: SpecimenView): string[] {
 		s.hazards.map((h) => (h.note ? `${h.flag}: ${h.note}` : h.flag)).join(' | '), s.nextCheckDue ?? '',
 		s.specimenTopMm === null ? '' : String(s.specimenTopMm),
 	].map(defuse);
-}
-
-export function toCsv(rows: string[][]): string {
-	return Papa.unparse({ fields: [...EXPORT_COLUMNS], data: rows }, { newline: '\r\n' });
 }
