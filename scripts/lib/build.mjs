@@ -16,6 +16,8 @@ function hashInputs(root) {
 	};
 	for (const i of INPUTS) if (fs.existsSync(path.join(root, i))) walk(path.join(root, i));
 	h.update(process.env.MENISCUS_ALLOWED_HOSTS ?? '');
+	// Builds before this line existed may have been made under vitest (NODE_ENV=test): never reuse them.
+	h.update('\0production');
 	return h.digest('hex');
 }
 
@@ -28,7 +30,10 @@ export function ensureBuild(root, log = console.log) {
 	const r = spawnSync(path.join(root, 'node_modules', '.bin', 'astro'), ['build'], {
 		cwd: root,
 		stdio: ['ignore', 'pipe', 'inherit'],
-		env: { ...process.env, ASTRO_TELEMETRY_DISABLED: '1' },
+		// Always the production build: under vitest NODE_ENV is "test", and Vite then bundles React's
+		// development build, which ran the mark canvas at half speed (bench/canvas.ts) in the tests
+		// and in any `npm start` that reused the tests' build.
+		env: { ...process.env, NODE_ENV: 'production', ASTRO_TELEMETRY_DISABLED: '1' },
 	});
 	if (r.status !== 0) {
 		process.stderr.write(r.stdout);
