@@ -4,6 +4,7 @@ import { api, ApiError } from '../../lib/client/api.ts';
 import type { Role } from '../../lib/auth/roles.ts';
 import { analysePair } from '../../lib/compare/analysis.ts';
 import { pairsFromControlMarks } from '../../lib/compare/pairs.ts';
+import { lowestUnused } from '../../lib/marks/tools/measure.ts';
 import { MAX_PAIRS, type ControlPair, type RegistrationModel } from '../../lib/compare/schema.ts';
 import type { MarkChange } from '../../lib/compare/changes.ts';
 import { QueryRoot } from '../QueryRoot.tsx';
@@ -149,13 +150,7 @@ function Workspace({ specimenId, userId, role, sources, saved, before: askBefore
 
 	const place = (side: 'before' | 'after', at: [number, number]) => {
 		if (pairs.length >= MAX_PAIRS) return;
-		const nextN = () => {
-			const used = new Set(pairs.map((p) => p.n));
-			let n = 1;
-			while (used.has(n)) n++;
-			return n;
-		};
-		const p: Pending = pending ?? { n: nextN() };
+		const p: Pending = pending ?? { n: lowestUnused(pairs.map((x) => x.n)) };
 		const next = { ...p, [side]: at };
 		if (next.before && next.after) {
 			setPairs((ps) => [...ps, { n: next.n, before: [next.before![0], next.before![1]], after: [next.after![0], next.after![1]] }]);

@@ -47,9 +47,14 @@ export const MAX_CONTROL_NUMBER = 999;
  * by number across photographs of the same jar, so a re-placed number 2 should be 2 again.
  */
 export function nextControlNumber(marks: readonly Mark[]): number {
-	const used = new Set(marks.flatMap((m) => (m.kind === 'control' ? [m.n] : [])));
+	return lowestUnused(marks.flatMap((m) => (m.kind === 'control' ? [m.n] : [])));
+}
+
+/** The lowest whole number from 1 up that `used` does not hold (control points and compare pairs number this way). */
+export function lowestUnused(used: Iterable<number>): number {
+	const taken = new Set(used);
 	let n = 1;
-	while (used.has(n)) n++;
+	while (taken.has(n)) n++;
 	return n;
 }
 
