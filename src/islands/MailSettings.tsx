@@ -1,4 +1,5 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
 import { QueryRoot } from './QueryRoot.tsx';
 import { api } from '../lib/client/api.ts';
 import { MAIL_KIND_INFO, type MailKind, type MailPreferences, type MailPreferencesPatch } from '../lib/mail/preferences.ts';
@@ -17,17 +18,25 @@ export default function MailSettings({ kinds }: { kinds: MailKind[] }) {
 function Switches({ kinds }: { kinds: MailKind[] }) {
 	const client = useQueryClient();
 	const q = useQuery({ queryKey: ['mail-preferences'], queryFn: () => api<Answer>('/api/me/mail-preferences') });
+	// The switch moves at once, in the click's own render: React puts a controlled checkbox back
+	// when the click's state update comes later (TanStack's onMutate runs a tick after the click).
+	// A refusal puts it back; the saved answer replaces the local value.
+	const [shown, setShown] = useState<MailPreferencesPatch>({});
 	const save = useMutation({
 		mutationFn: (patch: MailPreferencesPatch) => api<Answer>('/api/me/mail-preferences', { method: 'PATCH', body: patch }),
-		// The switch moves at once; a refusal puts it back.
-		onMutate: (patch) => {
-			const before = client.getQueryData<Answer>(['mail-preferences']);
-			if (before) client.setQueryData<Answer>(['mail-preferences'], { preferences: { ...before.preferences, ...patch } });
-			return { before };
+		onSettled: (data, _err, patch) => {
+			if (data) client.setQueryData(['mail-preferences'], data);
+			setShown((now) => {
+				const rest = { ...now };
+				for (const k of Object.keys(patch) as MailKind[]) if (rest[k] === patch[k]) delete rest[k];
+				return rest;
+			});
 		},
-		onError: (_err, _patch, ctx) => ctx?.before && client.setQueryData(['mail-preferences'], ctx.before),
-		onSuccess: (data) => client.setQueryData(['mail-preferences'], data),
 	});
+	const toggle = (k: MailKind, on: boolean) => {
+		setShown((now) => ({ ...now, [k]: on }));
+		save.mutate({ [k]: on });
+	};
 	if (kinds.length === 0) return <p className="notice-info">Your role receives no optional mail.</p>;
 	if (q.isPending) return <p role="status">Loading…</p>;
 	if (q.isError) return <p className="notice-error" role="alert">{q.error.message}</p>;
@@ -42,8 +51,8 @@ function Switches({ kinds }: { kinds: MailKind[] }) {
 							type="checkbox"
 							className="mt-1 h-5 w-5"
 							name={k}
-							checked={prefs[k]}
-							onChange={(e) => save.mutate({ [k]: e.currentTarget.checked })}
+							checked={shown[k] ?? prefs[k]}
+							onChange={(e) => toggle(k, e.currentTarget.checked)}
 						/>
 						<span>
 							<span className="block font-semibold">{MAIL_KIND_INFO[k].label}</span>
