@@ -2,13 +2,17 @@
 import { getViteConfig } from 'astro/config';
 
 /**
- * One run covers unit, integration and browser tests. The global setup gives integration and
+ * `npm test` covers unit, integration and browser tests; `npm run test:reliability` runs the heavier
+ * load, fault and restore suites in tests/reliability (MENISCUS_TEST_SCOPE=reliability). The global setup gives integration and
  * browser tests a throwaway PostgreSQL, the built app and a fake mail server; unit-only runs
  * (`npm run test:unit`) skip it.
  */
 export default getViteConfig({
 	test: {
-		include: ['tests/**/*.test.ts'],
+		include:
+			process.env.MENISCUS_TEST_SCOPE === 'reliability'
+				? ['tests/reliability/**/*.test.ts']
+				: ['tests/unit/**/*.test.ts', 'tests/integration/**/*.test.ts', 'tests/browser/**/*.test.ts'],
 		globalSetup: ['tests/setup/global.ts'],
 		testTimeout: 30_000,
 		hookTimeout: 180_000,
