@@ -7,6 +7,7 @@ import * as specimenTop from './20261205000100-specimen-top.ts';
 import * as correctionsIndex from './20261205000200-check-corrections-index.ts';
 import * as comparisons from './20261206000000-comparisons.ts';
 import * as mailPreferences from './20261207000000-mail-preferences.ts';
+import * as treatments from './20261208000000-treatments.ts';
 
 /**
  * Every migration, in order. Listed by static import rather than found by a file glob, so that
@@ -23,4 +24,5 @@ export const MIGRATIONS = [
 	{ name: '20261205000200-check-corrections-index.ts', ...correctionsIndex },
 	{ name: '20261206000000-comparisons.ts', ...comparisons },
 	{ name: '20261207000000-mail-preferences.ts', ...mailPreferences },
+	{ name: '20261208000000-treatments.ts', ...treatments },
 ];

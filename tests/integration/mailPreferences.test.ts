@@ -5,7 +5,7 @@ import { db } from '../../src/lib/server/db.ts';
 import { AuditEvent } from '../../src/lib/server/models/index.ts';
 
 /** GET/PATCH /api/me/mail-preferences: one's own choices only, checked with zod, audited. */
-const all = (on: boolean) => ({ checkSubmitted: on, checkReturned: on, checkApproved: on, dueDigest: on });
+const all = (on: boolean) => ({ checkSubmitted: on, riskSubmitted: on, checkReturned: on, checkApproved: on, riskReviewed: on, dueDigest: on });
 const get = (cookie?: string) => call('/api/me/mail-preferences', { cookie });
 const patch = (json: unknown, cookie?: string) => call('/api/me/mail-preferences', { method: 'PATCH', cookie, json });
 let a = { id: '', cookie: '' };

@@ -24,10 +24,10 @@ describe('migrations', () => {
 	it('go up, down and up again on an empty database', async () => {
 		await createDatabase({ dataDir: inject('clusterDataDir'), port: inject('clusterPort'), name });
 		sequelize = openSequelize(inject('databaseUrl').replace(/\/[^/]+$/, `/${name}`));
-		expect(await migrateUp(sequelize)).toEqual(['20261201000000-foundation.ts', '20261202000000-condition-checks.ts', '20261203000000-photographs.ts', '20261204000000-mark-layers.ts', '20261205000000-store-limits.ts', '20261205000100-specimen-top.ts', '20261205000200-check-corrections-index.ts', '20261206000000-comparisons.ts', '20261207000000-mail-preferences.ts']);
-		const all = ['audit_events', 'auth_tokens', 'condition_checks', 'damage_terms', 'grade_intervals', 'login_throttles', 'mail_digests', 'mail_preferences', 'mark_layers', 'outgoing_mail', 'photo_comparisons', 'photo_derivatives', 'photo_fixity_checks', 'photo_uploads', 'photos', 'specimens', 'storage_locations', 'user_sessions', 'users'];
+		expect(await migrateUp(sequelize)).toEqual(['20261201000000-foundation.ts', '20261202000000-condition-checks.ts', '20261203000000-photographs.ts', '20261204000000-mark-layers.ts', '20261205000000-store-limits.ts', '20261205000100-specimen-top.ts', '20261205000200-check-corrections-index.ts', '20261206000000-comparisons.ts', '20261207000000-mail-preferences.ts', '20261208000000-treatments.ts']);
+		const all = ['audit_events', 'auth_tokens', 'condition_checks', 'damage_terms', 'grade_intervals', 'login_throttles', 'mail_digests', 'mail_preferences', 'mark_layers', 'outgoing_mail', 'photo_comparisons', 'photo_derivatives', 'photo_fixity_checks', 'photo_uploads', 'photos', 'specimens', 'storage_locations', 'treatment_materials', 'treatments', 'user_sessions', 'users'];
 		expect(await tables()).toEqual(all);
-		expect(await migrateDownAll(sequelize)).toEqual(['20261207000000-mail-preferences.ts', '20261206000000-comparisons.ts', '20261205000200-check-corrections-index.ts', '20261205000100-specimen-top.ts', '20261205000000-store-limits.ts', '20261204000000-mark-layers.ts', '20261203000000-photographs.ts', '20261202000000-condition-checks.ts', '20261201000000-foundation.ts']);
+		expect(await migrateDownAll(sequelize)).toEqual(['20261208000000-treatments.ts', '20261207000000-mail-preferences.ts', '20261206000000-comparisons.ts', '20261205000200-check-corrections-index.ts', '20261205000100-specimen-top.ts', '20261205000000-store-limits.ts', '20261204000000-mark-layers.ts', '20261203000000-photographs.ts', '20261202000000-condition-checks.ts', '20261201000000-foundation.ts']);
 		expect(await tables()).toEqual([]);
 		await migrateUp(sequelize);
 		expect(await tables()).toEqual(all);

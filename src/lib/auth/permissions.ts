@@ -67,6 +67,19 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	'/api/checks/[id]/submit': { POST: CONSERVATOR },
 	'/api/checks/[id]/history': { GET: 'signed-in' },
 	'/api/checks/[id]/review': { POST: ['reviewer'] },
+	// Treatments. Conservators plan, assess risks and record the work; reviewers sign off risk
+	// assessments (src/lib/treatment/workflow.ts decides each step); everybody signed in reads.
+	'/treatments/[id]': { GET: 'signed-in' },
+	'/api/specimens/[id]/treatments': { GET: 'signed-in', POST: CONSERVATOR },
+	'/api/treatments': { GET: ['conservator', 'reviewer'] },
+	'/api/treatments/export.csv': { GET: 'signed-in' },
+	'/api/treatments/[id]': { GET: 'signed-in', PUT: CONSERVATOR },
+	'/api/treatments/[id]/risk-submit': { POST: CONSERVATOR },
+	'/api/treatments/[id]/risk-review': { POST: ['reviewer'] },
+	'/api/treatments/[id]/close': { POST: CONSERVATOR },
+	// The materials list (sealants with their cure periods, threads, …) is kept by administrators.
+	'/api/treatment-materials': { GET: 'signed-in', POST: ADMIN },
+	'/api/treatment-materials/[id]': { PATCH: ADMIN },
 	'/api/vocabulary/terms': { GET: 'signed-in', POST: ADMIN },
 	'/api/settings/intervals': { GET: 'signed-in', PUT: ADMIN },
 	// Fluid tools: computations only, nothing stored; every signed-in role may use them.

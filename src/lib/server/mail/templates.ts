@@ -151,3 +151,40 @@ export function dueDigestMail(to: string, name: string, d: DigestFacts): MailInp
 		PREFS_FOOTER(d.origin),
 	);
 }
+
+export interface RiskMailFacts {
+	objectNumber: string;
+	title: string;
+	treatment: string;
+	link: string;
+	origin: string;
+}
+
+export function riskSubmittedMail(to: string, name: string, r: RiskMailFacts, author: string, hazards: string[]): MailInput {
+	return composed(
+		to,
+		`Risk assessment for ${r.objectNumber} waiting for sign-off`,
+		name,
+		[
+			{ p: `${author} asks for sign-off of the risk assessment for “${r.treatment}” on ${r.objectNumber} (${r.title}). Work steps cannot start until it is signed off. Hazards assessed:` },
+			{ list: hazards },
+			{ link: r.link },
+		],
+		PREFS_FOOTER(r.origin),
+	);
+}
+
+export function riskReviewedMail(to: string, name: string, r: RiskMailFacts, reviewer: string, decision: 'sign-off' | 'return', comment: string | null): MailInput {
+	const signed = decision === 'sign-off';
+	return composed(
+		to,
+		signed ? `Risk assessment for ${r.objectNumber} signed off` : `Risk assessment for ${r.objectNumber} returned with comments`,
+		name,
+		[
+			{ p: signed ? `${reviewer} has signed off the risk assessment for “${r.treatment}” on ${r.objectNumber} (${r.title}). The work steps can now be started.` : `${reviewer} has returned the risk assessment for “${r.treatment}” on ${r.objectNumber} (${r.title}) with this comment:` },
+			...(comment ? [{ quote: comment }] : []),
+			{ link: r.link },
+		],
+		PREFS_FOOTER(r.origin),
+	);
+}

@@ -6,6 +6,8 @@ export class MailPreference extends Model<InferAttributes<MailPreference>, Infer
 	declare checkSubmitted: CreationOptional<boolean>;
 	declare checkReturned: CreationOptional<boolean>;
 	declare checkApproved: CreationOptional<boolean>;
+	declare riskSubmitted: CreationOptional<boolean>;
+	declare riskReviewed: CreationOptional<boolean>;
 	declare dueDigest: CreationOptional<boolean>;
 	declare updatedAt: CreationOptional<Date>;
 
@@ -18,6 +20,8 @@ export class MailPreference extends Model<InferAttributes<MailPreference>, Infer
 				checkSubmitted: on(),
 				checkReturned: on(),
 				checkApproved: on(),
+				riskSubmitted: on(),
+				riskReviewed: on(),
 				dueDigest: on(),
 				updatedAt: DataTypes.DATE,
 			},

@@ -14,16 +14,18 @@ import { PhotoUpload } from './PhotoUpload.ts';
 import { PhotoMarkLayer } from './PhotoMarkLayer.ts';
 import { Specimen } from './Specimen.ts';
 import { StorageLocation } from './StorageLocation.ts';
+import { Treatment } from './Treatment.ts';
+import { TreatmentMaterial } from './TreatmentMaterial.ts';
 import { User } from './User.ts';
 import { UserSession } from './UserSession.ts';
 
 export type { TokenPurpose } from './AuthToken.ts';
-export { AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, MailPreference, OutgoingMail, Photo, PhotoComparison, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, User, UserSession };
+export { AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, MailPreference, OutgoingMail, Photo, PhotoComparison, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, Treatment, TreatmentMaterial, User, UserSession };
 export type { DerivativeKind } from './PhotoDerivative.ts';
 
 /** Binds every model to one connection and declares the associations. */
 export function initModels(sequelize: Sequelize): void {
-	for (const m of [AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, MailPreference, OutgoingMail, Photo, PhotoComparison, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, User, UserSession]) {
+	for (const m of [AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, MailPreference, OutgoingMail, Photo, PhotoComparison, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, Treatment, TreatmentMaterial, User, UserSession]) {
 		m.initModel(sequelize);
 	}
 	Specimen.belongsTo(StorageLocation, { foreignKey: 'storageLocationId', as: 'location' });
@@ -38,6 +40,11 @@ export function initModels(sequelize: Sequelize): void {
 	Photo.belongsTo(Specimen, { foreignKey: 'specimenId', as: 'specimen' });
 	Photo.belongsTo(ConditionCheck, { foreignKey: 'checkId', as: 'check' });
 	Photo.hasMany(PhotoDerivative, { foreignKey: 'photoId', as: 'derivatives' });
+	Treatment.belongsTo(Specimen, { foreignKey: 'specimenId', as: 'specimen' });
+	Treatment.belongsTo(User, { foreignKey: 'createdBy', as: 'author' });
+	Treatment.belongsTo(User, { foreignKey: 'riskReviewerId', as: 'riskReviewer' });
+	Treatment.belongsTo(ConditionCheck, { foreignKey: 'beforeCheckId', as: 'beforeCheck' });
+	Treatment.belongsTo(ConditionCheck, { foreignKey: 'afterCheckId', as: 'afterCheck' });
 	PhotoComparison.belongsTo(User, { foreignKey: 'createdBy', as: 'creator' });
 	PhotoComparison.belongsTo(User, { foreignKey: 'updatedBy', as: 'updater' });
 	PhotoComparison.belongsTo(Photo, { foreignKey: 'beforePhotoId', as: 'before' });
