@@ -8,6 +8,7 @@ import type { CheckView } from '../lib/check/view.ts';
 import { CHECK_LABELS } from '../lib/check/vocabulary.ts';
 import { GradeBadge } from './check/GradeBadge.tsx';
 import { Breakdown, Empty, Figure, Section } from './dashboard/parts.tsx';
+import { MyTreatments, ReviewQueue } from './dashboard/ReviewQueue.tsx';
 
 /** The home page's figures, fetched from /api/home; each role sees its own part. */
 export default function HomeDashboard() {
@@ -33,9 +34,14 @@ function Dashboard() {
 					/>
 				</Section>
 			)}
+			{h.openChecks !== null && h.role === 'conservator' && (
+				<Section title="My open treatments">
+					<MyTreatments />
+				</Section>
+			)}
 			{h.awaitingReview !== null && (
 				<Section title="Waiting for review">
-					<CheckList view="queue" empty="Nothing is waiting for your review. Checks that conservators submit queue here, oldest first." />
+					<ReviewQueue />
 				</Section>
 			)}
 			{h.collection && <Collection c={h.collection} />}
@@ -44,7 +50,7 @@ function Dashboard() {
 	);
 }
 
-function CheckList({ view, empty }: { view: 'mine' | 'queue'; empty: string }) {
+function CheckList({ view, empty }: { view: 'mine'; empty: string }) {
 	const q = useQuery({ queryKey: ['checks', view], queryFn: () => api<{ checks: CheckView[] }>(`/api/checks?view=${view}`) });
 	if (q.isPending) return <p role="status">Loading…</p>;
 	if (q.isError) return <p className="notice-error" role="alert">{q.error.message}</p>;
@@ -58,7 +64,7 @@ function CheckList({ view, empty }: { view: 'mine' | 'queue'; empty: string }) {
 					<GradeBadge grade={c.overallGrade} />
 					<span className="ml-auto text-sm text-ink-700">
 						{CHECK_LABELS.state[c.state]}
-						{view === 'queue' ? ` since ${c.submittedAt?.slice(0, 10)} · ${c.examiner.name}` : ` · checked ${c.checkedOn}`}
+						{` · checked ${c.checkedOn}`}
 					</span>
 				</li>
 			))}

@@ -43,7 +43,7 @@ describe('a condition check from opening to approval', () => {
 		await page.screenshot({ path: screenshotPath('check-submitted'), fullPage: true });
 
 		await signInAs(page, 'reviewer', '/');
-		await page.locator('[data-testid=checks-queue]').getByText(number).click();
+		await page.locator('[data-testid=review-queue]').getByText(number).click();
 		await page.waitForURL((u) => u.pathname === checkPath);
 		await page.getByLabel('Comment (needed to return the check)').fill('Please record the fluid level from the inner base.');
 		await page.click('text=Return with comment');

@@ -1,8 +1,8 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import fs from 'node:fs';
 import { QueryTypes } from 'sequelize';
-import { extractText, getDocumentProxy } from 'unpdf';
 import { call, useTestDatabase } from '../helpers/server.ts';
+import { reportOf } from '../helpers/pdf.ts';
 import { signedInUser } from '../helpers/users.ts';
 import { newSpecimen, submittedCheck } from '../helpers/checks.ts';
 import { db } from '../../src/lib/server/db.ts';
@@ -14,15 +14,7 @@ type Showcase = { id: string; checked_on: string; examiner: string; parts: Recor
 let viewer = '';
 let showcase: Showcase;
 
-async function pdfOf(id: string): Promise<{ res: Response; bytes: Uint8Array; pages: string[]; ms: number }> {
-	const t0 = performance.now();
-	const res = await call(`/api/checks/${id}/report.pdf`, { cookie: viewer });
-	const bytes = new Uint8Array(await res.arrayBuffer());
-	const ms = performance.now() - t0;
-	if (res.status !== 200) return { res, bytes, pages: [], ms };
-	const { text } = await extractText(await getDocumentProxy(bytes.slice()), { mergePages: false });
-	return { res, bytes, pages: text as string[], ms };
-}
+const pdfOf = (id: string) => reportOf(id, viewer);
 
 beforeAll(async () => {
 	useTestDatabase();

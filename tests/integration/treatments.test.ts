@@ -3,6 +3,7 @@ import Papa from 'papaparse';
 import { QueryTypes } from 'sequelize';
 import { call, useTestDatabase } from '../helpers/server.ts';
 import { signedInUser } from '../helpers/users.ts';
+import { reportOf } from '../helpers/pdf.ts';
 import { newSpecimen } from '../helpers/checks.ts';
 import { bodyOf, coveringRisk, openTreatment, saveTreatment } from '../helpers/treatments.ts';
 import { db } from '../../src/lib/server/db.ts';
@@ -221,6 +222,11 @@ describe('completing a treatment', () => {
 		expect(closed.body.treatment.state).toBe('completed');
 		const d: TreatmentView = closed.body.treatment;
 		expect((await saveTreatment(author.cookie, d, bodyOf(d))).status).toBe(403);
+		// The after check's condition report carries the treatment: plan, record, assessment, sign-off.
+		const { res, pages } = await reportOf(after.body.check.id, curator.cookie);
+		expect(res.status).toBe(200);
+		const text = pages.join('\n');
+		for (const words of ['Treatment', 'Re-jar and reseal (completed)', 'After treatment', 'Signed off', 'Test reviewer', 'Flammable spirit', 'Glass: breakage', 'Open the seal', 'Not needed', 'Local regulations']) expect(text).toContain(words);
 		// The database refuses it too.
 		await expect(db().query(`UPDATE treatments SET title = 'x' WHERE id = :id`, { replacements: { id: t.id }, type: QueryTypes.UPDATE })).rejects.toThrow(/cannot be changed/);
 	});
@@ -255,7 +261,7 @@ describe('the materials list and the treatments CSV', () => {
 		expect(completed['Risk assessment']).toBe('signed-off');
 		expect(completed['Signed off by']).toBe('Test reviewer');
 		expect(completed['Hazards (residual)']).toBe('flammable-spirit: medium | glass: medium');
-		expect(parsed.data.some((r) => r['Fluid batches (% vol)'].includes('B-26-031 ethanol 68.35'))).toBe(true);
+		expect(parsed.data.some((r) => r['Fluid batches (% vol)']?.includes('B-26-031 ethanol 68.35'))).toBe(true);
 		expect((await call('/api/treatments/export.csv?colour=red', { cookie: curator.cookie })).status).toBe(400);
 	});
 });

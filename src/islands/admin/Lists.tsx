@@ -4,10 +4,12 @@ import { QueryRoot } from '../QueryRoot.tsx';
 import { api, ApiError } from '../../lib/client/api.ts';
 import { CHECK_LABELS, DEFAULT_TERMS, GRADES, PARTS, type Grade, type Part } from '../../lib/check/vocabulary.ts';
 import { Locations, problemText } from './Locations.tsx';
+import { Materials } from './Materials.tsx';
 
 /**
  * The lists an administrator keeps: storage locations with their limits, damage terms per part
- * (added to the built-in ones), and the months to the next check per overall grade.
+ * (added to the built-in ones), the months to the next check per overall grade, and the
+ * materials treatments record (with sealants' cure periods).
  */
 export default function Lists() {
 	return (
@@ -17,6 +19,9 @@ export default function Lists() {
 				<Intervals />
 				<div className="lg:col-span-2">
 					<Terms />
+				</div>
+				<div className="lg:col-span-2">
+					<Materials />
 				</div>
 			</div>
 		</QueryRoot>

@@ -19,9 +19,9 @@ export function parseCheckExportQuery(params: URLSearchParams) {
 	return CheckExportQuerySchema.safeParse(Object.fromEntries(params));
 }
 
-/** The export's address for a filter, as the islands link to it. */
-export function checkExportUrl(q: CheckExportQuery = {}): string {
+/** The export's address for a filter, as the islands link to it (treatments take the same filters). */
+export function checkExportUrl(q: CheckExportQuery = {}, what: 'checks' | 'treatments' = 'checks'): string {
 	const p = new URLSearchParams(Object.entries(q).filter((e): e is [string, string] => typeof e[1] === 'string' && e[1] !== ''));
 	const s = p.toString();
-	return `/api/checks/export.csv${s ? `?${s}` : ''}`;
+	return `/api/${what}/export.csv${s ? `?${s}` : ''}`;
 }

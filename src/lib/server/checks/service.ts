@@ -74,6 +74,25 @@ export async function checkList(view: 'mine' | 'queue', actor: Actor): Promise<C
 	return (await ConditionCheck.findAll({ where, include, order, limit: 200 })).map(checkView);
 }
 
+/**
+ * For checks in the review queue, the grade the specimen had at its previous approved check, so a
+ * reviewer sees at a glance what changed ("fair → poor"). One query for the whole queue.
+ */
+export async function previousApproved(checks: CheckView[]): Promise<Record<string, { checkedOn: string; overallGrade: string | null }>> {
+	if (checks.length === 0) return {};
+	const approved = await ConditionCheck.findAll({
+		where: { specimenId: { [Op.in]: [...new Set(checks.map((c) => c.specimen.id))] }, state: 'approved' },
+		attributes: ['id', 'specimenId', 'checkedOn', 'overallGrade'],
+		order: [['checkedOn', 'DESC'], ['reviewedAt', 'DESC']],
+	});
+	const out: Record<string, { checkedOn: string; overallGrade: string | null }> = {};
+	for (const c of checks) {
+		const p = approved.find((a) => a.specimenId === c.specimen.id && a.id !== c.id && a.checkedOn <= c.checkedOn);
+		if (p) out[c.id] = { checkedOn: p.checkedOn, overallGrade: p.overallGrade };
+	}
+	return out;
+}
+
 /** Opens a draft check on a specimen; `corrects` names an approved check this one corrects. */
 export async function openCheck(actor: CheckActor, specimenId: string, corrects?: string): Promise<CheckView> {
 	if (actor.role !== 'conservator') throw new CheckError(403, 'Only conservators open condition checks.');

@@ -1,5 +1,7 @@
 import { Op } from 'sequelize';
-import { ConditionCheck, PhotoComparison, Specimen, StorageLocation } from '../models/index.ts';
+import { ConditionCheck, PhotoComparison, Specimen, StorageLocation, Treatment } from '../models/index.ts';
+import { getTreatment } from '../treatments/service.ts';
+import type { TreatmentView } from '../../treatment/view.ts';
 import { getCheck } from '../checks/service.ts';
 import { comparablePhotos, comparedPhoto, newestFirst, type Comparable } from '../compare/comparable.ts';
 import { analysePair, summaryOf, UNALIGNED_NOTE, type ComparisonSummary } from '../../compare/analysis.ts';
@@ -16,6 +18,8 @@ export interface ReportData {
 	location: string;
 	photos: { view: PhotoView; stage: PhotoStage; fileName: string; jpeg: Buffer; width: number; height: number; marks: number }[];
 	changes: { previousDate: string; summary: ComparisonSummary; note: string } | null;
+	/** Treatments that link this check as their before- or after-treatment check. */
+	treatments: TreatmentView[];
 }
 
 const frontFirst = (a: Comparable, b: Comparable) => Number(b.photo.view === 'front') - Number(a.photo.view === 'front') || newestFirst(a, b);
@@ -57,5 +61,7 @@ export async function loadReport(checkId: string): Promise<ReportData | null> {
 			return { view: p.photo.view, stage: p.photo.stage, fileName: p.photo.fileName, jpeg, width: p.display.width, height: p.display.height, marks: p.layer.marks.length };
 		}),
 	);
-	return { check, specimen, location: loc ? `${loc.code} · ${loc.name}` : '—', photos, changes: await changesSincePrevious(check, mine) };
+	const linked = await Treatment.findAll({ where: { [Op.or]: [{ beforeCheckId: checkId }, { afterCheckId: checkId }] }, attributes: ['id'], order: [['createdAt', 'ASC']] });
+	const treatments = (await Promise.all(linked.map((t) => getTreatment(t.id)))).filter((t): t is TreatmentView => t !== null);
+	return { check, specimen, location: loc ? `${loc.code} · ${loc.name}` : '—', photos, changes: await changesSincePrevious(check, mine), treatments };
 }

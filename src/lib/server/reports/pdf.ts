@@ -6,6 +6,7 @@ import { LABELS } from '../../specimen/vocabulary.ts';
 import { PART_STYLE, SEVERITY_STYLE } from '../../marks/palette.ts';
 import { CHANGE_CLASSES } from '../../compare/changes.ts';
 import type { ReportData } from './checkReport.ts';
+import { treatmentSections } from './treatmentSection.ts';
 
 /**
  * The condition report of one check as an A4 PDF: black text of 9.5 pt and more, a header and a
@@ -86,27 +87,34 @@ export async function reportPdf(d: ReportData): Promise<Buffer> {
 		['State', CHECK_LABELS.state[check.state]],
 	]);
 
-	heading('Parts');
-	const cols = [{ t: 'Part', w: 95 }, { t: 'Grade', w: 80 }, { t: 'Terms', w: 140 }, { t: 'Note', w: width - 315 }];
-	const row = (cells: string[], bold: boolean) => {
-		doc.font(bold ? 'bold' : 'body').fontSize(BODY);
-		const h = Math.max(...cells.map((c, i) => doc.heightOfString(c, { width: cols[i]!.w - 6 }))) + 6;
-		if (doc.y + h > doc.page.height - MARGIN.bottom) doc.addPage();
-		const top = doc.y;
-		let x = left;
-		cells.forEach((c, i) => {
-			doc.text(c, x + 3, top + 3, { width: cols[i]!.w - 6 });
-			x += cols[i]!.w;
-		});
-		doc.moveTo(left, top + h).lineTo(left + width, top + h).lineWidth(0.5).strokeColor(GREY).stroke();
-		doc.x = left;
-		doc.y = top + h;
+	/** A ruled table; a row that does not fit goes to the next page whole. */
+	const table = (cols: { t: string; w: number }[], rows: string[][]) => {
+		const row = (cells: string[], bold: boolean) => {
+			doc.font(bold ? 'bold' : 'body').fontSize(BODY);
+			const h = Math.max(...cells.map((c, i) => doc.heightOfString(c, { width: cols[i]!.w - 6 }))) + 6;
+			if (doc.y + h > doc.page.height - MARGIN.bottom) doc.addPage();
+			const top = doc.y;
+			let x = left;
+			cells.forEach((c, i) => {
+				doc.text(c, x + 3, top + 3, { width: cols[i]!.w - 6 });
+				x += cols[i]!.w;
+			});
+			doc.moveTo(left, top + h).lineTo(left + width, top + h).lineWidth(0.5).strokeColor(GREY).stroke();
+			doc.x = left;
+			doc.y = top + h;
+		};
+		row(cols.map((c) => c.t), true);
+		for (const r of rows) row(r, false);
 	};
-	row(cols.map((c) => c.t), true);
-	for (const part of PARTS) {
-		const p = check.parts[part];
-		row([CHECK_LABELS.part[part], p.grade ? CHECK_LABELS.grade[p.grade] : 'Not graded', p.terms.join(', ') || '—', p.note || '—'], false);
-	}
+
+	heading('Parts');
+	table(
+		[{ t: 'Part', w: 95 }, { t: 'Grade', w: 80 }, { t: 'Terms', w: 140 }, { t: 'Note', w: width - 315 }],
+		PARTS.map((part) => {
+			const p = check.parts[part];
+			return [CHECK_LABELS.part[part], p.grade ? CHECK_LABELS.grade[p.grade] : 'Not graded', p.terms.join(', ') || '—', p.note || '—'];
+		}),
+	);
 	doc.moveDown(0.5);
 	pairs([
 		['Overall grade', (check.overallGrade ? CHECK_LABELS.grade[check.overallGrade] : 'Not graded') + (check.overallOverrideReason ? ` (set by hand: ${check.overallOverrideReason})` : '')],
@@ -143,6 +151,8 @@ export async function reportPdf(d: ReportData): Promise<Buffer> {
 		doc.moveDown(0.3);
 		para(lv.changeMm === null ? `Fluid level change from the readings: ${lv.reason}` : `Fluid level change from the readings: ${lv.changeMm > 0 ? '+' : ''}${lv.changeMm} mm over ${lv.days} days (${lv.beforeMm} → ${lv.afterMm} mm).`);
 	}
+
+	treatmentSections({ heading, pairs, para, table, width, moveDown: (n) => doc.moveDown(n) }, check.id, d.treatments);
 
 	heading('Review');
 	pairs(
