@@ -5,6 +5,7 @@ import { hashPassword } from '../../src/lib/server/auth/password.ts';
 import type { Role } from '../../src/lib/auth/roles.ts';
 import { DEMO_LOCATIONS, DEMO_SPECIMENS, DEMO_TOP_NOT_MEASURED, DEMO_USERS } from './demoData.ts';
 import { seedDemoChecks } from './demoChecks.ts';
+import { seedDemoTreatments } from './demoTreatments.ts';
 
 /**
  * The demo collection: an invented teaching collection, its people and its jars. It goes only into
@@ -74,7 +75,10 @@ export async function seedDemo(sequelize: Sequelize, opts: { password: string; t
 			transaction,
 		});
 		const idOf = (role: Role) => people.find((u) => u.role === role)!.id;
-		return seedDemoChecks(sequelize, transaction, { today, users: { conservatorId: idOf('conservator'), reviewerId: idOf('reviewer') } });
+		const users = { conservatorId: idOf('conservator'), reviewerId: idOf('reviewer') };
+		const n = await seedDemoChecks(sequelize, transaction, { today, users });
+		await seedDemoTreatments(sequelize, transaction, users, today);
+		return n;
 	});
 	return { seeded: true, users: DEMO_USERS.length, specimens: DEMO_SPECIMENS.length, checks };
 }

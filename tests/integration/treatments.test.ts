@@ -10,6 +10,8 @@ import { db } from '../../src/lib/server/db.ts';
 import { OutgoingMail } from '../../src/lib/server/models/index.ts';
 import type { TreatmentView } from '../../src/lib/treatment/view.ts';
 import { TREATMENT_EXPORT_COLUMNS } from '../../src/lib/server/treatments/csv.ts';
+import { TreatmentBodySchema } from '../../src/lib/treatment/schema.ts';
+import { bodyFromView } from '../../src/lib/treatment/edit.ts';
 
 /**
  * Treatments over HTTP (issue 8): the starting plan and the hazards the record suggests; the
@@ -263,5 +265,24 @@ describe('the materials list and the treatments CSV', () => {
 		expect(completed['Hazards (residual)']).toBe('flammable-spirit: medium | glass: medium');
 		expect(parsed.data.some((r) => r['Fluid batches (% vol)']?.includes('B-26-031 ethanol 68.35'))).toBe(true);
 		expect((await call('/api/treatments/export.csv?colour=red', { cookie: curator.cookie })).status).toBe(400);
+	});
+});
+
+describe('the demo treatments', () => {
+	it('are valid records: one waiting for sign-off in the queue, one completed between two approved checks', async () => {
+		const queue = await json(await call('/api/treatments?view=queue', { cookie: reviewer.cookie }));
+		const waiting = queue.body.treatments.find((x: { specimen: { objectNumber: string } }) => x.specimen.objectNumber === 'STC.1898.014');
+		expect(waiting).toBeDefined();
+		const w: TreatmentView = (await json(await call(`/api/treatments/${waiting.id}`, { cookie: reviewer.cookie }))).body.treatment;
+		// Every hazard the record suggests is assessed, so the reviewer can sign it off.
+		expect(w.riskProblems).toEqual([]);
+		expect(w.suggested.map((h) => h.kind).sort()).toEqual(w.risk.hazards.map((h) => h.kind).sort());
+		expect(TreatmentBodySchema.safeParse(bodyFromView(w)).success).toBe(true);
+		const [row] = await db().query<{ id: string }>(`SELECT id FROM treatments WHERE state = 'completed' AND created_by = (SELECT id FROM users WHERE email = 'conservator@example.org')`, { type: QueryTypes.SELECT });
+		const c: TreatmentView = (await json(await call(`/api/treatments/${row!.id}`, { cookie: curator.cookie }))).body.treatment;
+		expect(TreatmentBodySchema.safeParse(bodyFromView(c)).success).toBe(true);
+		expect(c.completionProblems).toEqual([]);
+		expect([c.beforeCheck?.state, c.afterCheck?.state]).toEqual(['approved', 'approved']);
+		expect(c.cure.warnings).toEqual([]);
 	});
 });

@@ -73,7 +73,8 @@ export function StepList(props: {
 							</p>
 						))}
 						{s.status !== 'planned' && (
-							<details className="mt-2" open={s.status === 'started' || s.status === 'done'}>
+							// Open while the step is under way or just changed; a finished step folds away.
+							<details className="mt-2" open={s.status === 'started' || savedStatus !== s.status}>
 								<summary className="cursor-pointer text-sm font-semibold text-glass-700">Record of this step</summary>
 								<div className="mt-2 grid gap-2 sm:grid-cols-4">
 									<label>

@@ -52,9 +52,10 @@ export function cureStatus(steps: readonly CureStep[], now: Date): CureStatus {
 		if (info.disturbs && step.status !== 'skipped') {
 			for (const t of active) {
 				const until = Date.parse(t.until);
-				const started = step.startedAt ? Date.parse(step.startedAt) : null;
-				if (started !== null && started < until) {
-					warnings.push({ stepId: step.id, kind: 'early', message: `Started at ${fmt(step.startedAt!)}, before ${t.material} had cured (from ${fmt(t.until)}).` });
+				// A step marked done without a start time began, at the latest, when it finished.
+				const began = step.startedAt ?? (step.status === 'done' ? step.finishedAt : null);
+				if (began !== null && Date.parse(began) < until) {
+					warnings.push({ stepId: step.id, kind: 'early', message: `${step.startedAt ? 'Started' : 'Done'} at ${fmt(began)}, before ${t.material} had cured (from ${fmt(t.until)}).` });
 				} else if (step.status === 'planned' && now.getTime() < until) {
 					warnings.push({ stepId: step.id, kind: 'wait', message: `Wait until ${fmt(t.until)}: ${t.material} is curing (${t.cureHours} h from ${fmt(t.appliedAt)}).` });
 				}

@@ -81,6 +81,9 @@ describe('cure timers', () => {
 	it('records a step started before the sealant cured, and a cure marked done too soon', () => {
 		const st = cureStatus([sealStep, cs('c', 'cure', 'done', { finishedAt: '2026-12-01T20:00:00.000Z' }), cs('f', 'finish-seal', 'done', { startedAt: '2026-12-02T08:00:00.000Z' })], new Date('2026-12-03T00:00:00Z'));
 		expect(st.warnings.map((w) => [w.stepId, w.kind])).toEqual([['c', 'early'], ['f', 'early']]);
+		// Marked done with only a finish time: it began by then at the latest.
+		const done = cureStatus([sealStep, cs('p', 'photograph-after', 'done', { finishedAt: '2026-12-01T18:00:00.000Z' })], new Date('2026-12-03T00:00:00Z'));
+		expect(done.warnings).toEqual([{ stepId: 'p', kind: 'early', message: expect.stringMatching(/^Done at 2026-12-01 18:00 UTC, before/) }]);
 	});
 	it('asks for the sealant when a sealing step is done without one, and ignores steps before the seal', () => {
 		const st = cureStatus([cs('o', 'open-seal', 'planned'), cs('s', 'seal', 'done')], new Date());
