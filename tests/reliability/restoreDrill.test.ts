@@ -65,6 +65,9 @@ describe('D6 restore drill: backup, restore into a fresh cluster, prove it', () 
 		manifest = parseManifest(fs.readFileSync(path.join(backupDir, MANIFEST_NAME), 'utf8'));
 		port = await freePort();
 		restoredUrl = (await startCluster({ dataDir, port, log: () => {}, database: 'meniscus_restored' })).url;
+		// An uploads folder as a fresh clone has it: only git's placeholder, which counts as empty.
+		fs.mkdirSync(restoredUploads);
+		fs.writeFileSync(path.join(restoredUploads, '.gitkeep'), '');
 		restoreRun = cli('restore.ts', [backupDir], { DATABASE_URL: restoredUrl, MENISCUS_UPLOADS_DIR: restoredUploads });
 		const bytes = manifest.files.reduce((n, f) => n + f.size, 0);
 		const dump = manifest.files.find((f) => f.path === 'database.dump')!;

@@ -14,6 +14,9 @@ export class BackupFileError extends Error {
 
 const toPosix = (p: string) => p.split(path.sep).join('/');
 
+/** The placeholder git keeps so that uploads/ exists in a clone: part of the source, not data. */
+const PLACEHOLDER = '.gitkeep';
+
 /** Every regular file below root (relative paths, sorted); a missing root has none. */
 export async function listFiles(root: string): Promise<string[]> {
 	const entries = await fsp.readdir(root, { withFileTypes: true, recursive: true }).catch((err: NodeJS.ErrnoException) => {
@@ -24,6 +27,7 @@ export async function listFiles(root: string): Promise<string[]> {
 	for (const e of entries) {
 		if (e.isDirectory()) continue;
 		const rel = toPosix(path.relative(root, path.join(e.parentPath, e.name)));
+		if (rel === PLACEHOLDER) continue;
 		// The app never writes links or devices here; following one could copy something from outside.
 		if (!e.isFile()) throw new BackupFileError(`${path.join(root, rel)} is not a regular file or folder; move it away and retry`);
 		out.push(rel);
