@@ -12,7 +12,10 @@ await runCli('npm run backup [-- <new folder>]', async (data) => {
 	const { url, uploadsDir } = await data();
 	const dest = path.resolve(ROOT, args.folder ?? path.join('backups', backupFolderName(new Date())));
 	log(`Backing up the database and ${uploadsDir} to ${dest}`);
-	const { manifest, ms } = await makeBackup({ url, uploadsDir, dest, app: appVersion() });
+	const { manifest, ms } = await makeBackup({ url, uploadsDir, dest, app: appVersion() }).catch((err: Error) => {
+		// makeBackup fails before it writes the manifest, so what it left is recognisably unfinished.
+		throw new Error(`${err.message}\nThe backup did not finish; ${dest}, if it was made, has no manifest and can be deleted.`);
+	});
 	const tables = Object.values(manifest.database.tables);
 	const bytes = manifest.files.reduce((n, f) => n + f.size, 0);
 	console.log(`Backup written to ${dest}

@@ -80,6 +80,7 @@ describe('D6 restore drill: backup, restore into a fresh cluster, prove it', () 
 		fs.rmSync(tmp, { recursive: true, force: true });
 	});
 
+	// ASVS 4.0.3 8.1.5 (backups of important data are made): the whole database, pg-boss's queue included, and every photo file.
 	it('backs up every table of the snapshot and the photo files', () => {
 		const tables = manifest.database.tables;
 		expect(Object.keys(tables)).toEqual(expect.arrayContaining(['public.specimens', 'public.photos', 'public.photo_derivatives', 'public.users']));
@@ -89,12 +90,14 @@ describe('D6 restore drill: backup, restore into a fresh cluster, prove it', () 
 		expect(uploadEntries(manifest).filter((f) => f.path.startsWith('masters/')).length).toBeGreaterThanOrEqual(tables['public.photos']!.rows);
 	});
 
+	// TESTPLAN D6: RTO measured.
 	it('restores with exit 0 and reports its recovery time', () => {
 		expect(restoreRun.stderr).not.toContain('error:');
 		expect(restoreRun.status).toBe(0);
 		expect(restoreRun.stdout).toMatch(/RTO: +\d+\.\d s/);
 	});
 
+	// TESTPLAN D6 "counts … match"; ASVS 4.0.3 8.1.5 (test restoration). The manifest's side was read in the snapshot pg_dump wrote (app-pgdump, --snapshot).
 	it('restores every table with the row count and content digest of the backed-up snapshot', async () => {
 		// Listed and counted here with plain SQL of its own, apart from the scripts' listing.
 		const counted = await withClient(restoredUrl, async (c) => {
@@ -126,6 +129,7 @@ describe('D6 restore drill: backup, restore into a fresh cluster, prove it', () 
 		});
 	});
 
+	// TESTPLAN D6 "hashes match".
 	it('restores every file byte for byte, each master matching the hash recorded at ingest', async () => {
 		expect(compareFiles(uploadEntries(manifest), await hashTree(restoredUploads))).toEqual([]);
 		const photos = await withClient(restoredUrl, async (c) => (await c.query<{ master_path: string; sha256: string }>('SELECT master_path, sha256 FROM photos')).rows);
@@ -138,6 +142,7 @@ describe('D6 restore drill: backup, restore into a fresh cluster, prove it', () 
 		}
 	});
 
+	// TESTPLAN D6 "0 orphans".
 	it('leaves 0 orphans: every photo has its files, every photo file has its photo', async () => {
 		const rows = await withClient(restoredUrl, async (c) => ({
 			photos: (await c.query<PhotoRow>(`SELECT id, master_path AS "masterPath", derivative_set AS "derivativeSet" FROM photos`)).rows,
@@ -152,6 +157,7 @@ describe('D6 restore drill: backup, restore into a fresh cluster, prove it', () 
 		expect(findOrphans(rows.photos, rows.derivatives, tampered)).toEqual({ missing: [gone], unowned: ['masters/zz/stray.jpg'] });
 	});
 
+	// ASVS 4.0.3 8.1.6 (backups protected from corruption): a corrupted backup is never restored.
 	it('refuses a backup with one changed byte before changing anything', async () => {
 		const tampered = path.join(tmp, 'backups', 'tampered');
 		fs.cpSync(backupDir, tampered, { recursive: true });
@@ -185,6 +191,7 @@ describe('D6 restore drill: backup, restore into a fresh cluster, prove it', () 
 		expect(bad.stderr).toContain('usage: npm run restore');
 	});
 
+	// PostgreSQL docs app-pgrestore: --single-transaction, with --exit-on-error, restores all or nothing.
 	it('rolls a forced restore back when pg_restore fails, and puts the earlier data back', async () => {
 		const broken = path.join(tmp, 'backups', 'broken-dump');
 		fs.cpSync(backupDir, broken, { recursive: true });

@@ -35,6 +35,12 @@ export async function listFiles(root: string): Promise<string[]> {
 	return out.sort();
 }
 
+/** Whether `inner` is `outer` or lies below it (both absolute). */
+export function isWithin(outer: string, inner: string): boolean {
+	const rel = path.relative(outer, inner);
+	return rel === '' || (rel !== '..' && !rel.startsWith(`..${path.sep}`) && !path.isAbsolute(rel));
+}
+
 /** Whether a folder is absent or holds no files (empty subfolders, as ensureDirs makes, do not count). */
 export async function hasNoFiles(root: string): Promise<boolean> {
 	return (await listFiles(root)).length === 0;

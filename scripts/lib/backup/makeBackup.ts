@@ -1,6 +1,6 @@
 import fsp from 'node:fs/promises';
 import path from 'node:path';
-import { copyTree, writeFileDurably } from './files.ts';
+import { copyTree, isWithin, writeFileDurably } from './files.ts';
 import { buildManifest, DUMP_NAME, FORMAT, MANIFEST_NAME, UPLOADS_PREFIX, type Manifest } from './manifest.ts';
 import { describeSnapshot, dumpDatabase, pgDumpVersion, withTransaction } from './postgres.ts';
 import { sha256File } from '../../../src/lib/server/photos/storage.ts';
@@ -32,6 +32,8 @@ export interface BackupResult {
  */
 export async function makeBackup({ url, uploadsDir, dest, app }: BackupInput): Promise<BackupResult> {
 	const started = new Date();
+	// A backup inside the uploads folder would copy itself (and every later backup the ones before).
+	if (isWithin(uploadsDir, dest)) throw new Error(`The backup folder ${dest} is inside the uploads folder ${uploadsDir}; choose another place.`);
 	// 0700: a backup holds personal data (names, e-mail addresses, photographs' GPS positions).
 	await fsp.mkdir(path.dirname(dest), { recursive: true });
 	await fsp.mkdir(dest, { mode: 0o700 });

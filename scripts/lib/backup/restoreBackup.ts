@@ -1,7 +1,7 @@
 import fsp from 'node:fs/promises';
 import path from 'node:path';
 import { compareFiles, compareTables, describeMismatches, type Mismatch } from './compare.ts';
-import { copyTree, hasNoFiles, hashTree } from './files.ts';
+import { copyTree, hasNoFiles, hashTree, isWithin } from './files.ts';
 import { DUMP_NAME, MANIFEST_NAME, parseManifest, uploadEntries, UPLOADS_PREFIX, type Manifest } from './manifest.ts';
 import { listTables, readDatabase, restoreDatabase, withTransaction } from './postgres.ts';
 import { dropSchemas, moveSchemasAside, putSchemasBack } from './schemas.ts';
@@ -60,6 +60,10 @@ async function emptyTarget(url: string, uploadsDir: string): Promise<{ tables: n
  */
 export async function restoreBackup({ dir, url, uploadsDir, force }: RestoreInput): Promise<RestoreReport> {
 	const started = Date.now();
+	// --force moves the uploads folder aside: with the backup inside it, the copy would lose its source.
+	if (isWithin(uploadsDir, dir) || isWithin(dir, uploadsDir)) {
+		throw new RestoreError(`The backup ${dir} and the uploads folder ${uploadsDir} must not lie inside one another. Nothing was changed.`, true);
+	}
 	const manifest = await verifyBackup(dir);
 	const target = await emptyTarget(url, uploadsDir);
 	if ((target.tables > 0 || !target.uploadsEmpty) && !force) {
