@@ -56,7 +56,8 @@ async function emptyTarget(url: string, uploadsDir: string): Promise<{ tables: n
  * against the manifest (every table's rows and digest, every file's hash, nothing extra). A target
  * with tables or files is refused unless `force`; then its schemas are moved aside until the
  * restored data is proven (schemas.ts), and the uploads folder's old contents are moved aside and
- * kept: files cost nothing inside the database, while old schemas would go into every later backup.
+ * kept for the operator to delete: a sibling folder is in no later backup, while old schemas left in
+ * the database would be in every one.
  */
 export async function restoreBackup({ dir, url, uploadsDir, force }: RestoreInput): Promise<RestoreReport> {
 	const started = Date.now();
