@@ -2,6 +2,7 @@
 type Log = (line: string) => void;
 export declare const DEFAULT_PG_PORT: number;
 export declare function findPgBin(opts?: { install?: boolean; log?: Log }): Promise<string>;
+export declare function clusterRunning(dataDir: string): boolean;
 export declare function ensureCluster(opts: { dataDir: string; port?: number; log?: Log }): Promise<{
 	dataDir: string;
 	socketDir: string;

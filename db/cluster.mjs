@@ -127,6 +127,9 @@ function clusterState(dataDir) {
 	return { pid, port, running: alive };
 }
 
+/** Whether the cluster in dataDir is running now (so a command that starts it knows to stop it again). */
+export const clusterRunning = (dataDir) => Boolean(clusterState(dataDir)?.running);
+
 export async function ensureCluster({ dataDir, port = DEFAULT_PG_PORT, log = console.log } = {}) {
 	if (!dataDir || !path.isAbsolute(dataDir)) throw new Error(`dataDir must be an absolute path, got ${dataDir}`);
 	// The paths end up inside single-quoted config values and pg_ctl's -o string (parsed by a shell).
