@@ -30,9 +30,13 @@ beforeAll(async () => {
 
 describe('the due digest', () => {
 	it('is sent once per user per day even when triggered twice at once and again later', async () => {
+		const t0 = new Date();
 		const [first, second] = await Promise.all([runDueDigest(date), runDueDigest(date)]);
 		expect(first + second).toBeGreaterThan(0);
-		expect(await runDueDigest(date)).toBe(0);
+		// Run again later: only conservators that other test files created meanwhile can get one now.
+		const again = await runDueDigest(date);
+		const newcomers = await db().query<{ n: number }>(`SELECT count(*)::int AS n FROM users WHERE role = 'conservator' AND created_at >= :t0`, { replacements: { t0 }, type: QueryTypes.SELECT });
+		expect(again).toBeLessThanOrEqual(newcomers[0]!.n);
 		const rows = await db().query<{ n: number }>('SELECT count(*)::int AS n FROM mail_digests WHERE user_id = :id AND digest_date = :date', { replacements: { id: keen.id, date }, type: QueryTypes.SELECT });
 		expect(rows[0]!.n).toBe(1);
 		expect(await digests(keen.email)).toHaveLength(1);
