@@ -56,7 +56,7 @@ describe('the collection overview in a browser', () => {
 		await signInAs(page, 'admin', '/admin/lists');
 		const code = `LB-${Date.now() % 100000}`;
 		await page.getByLabel('Code').fill(code);
-		await page.getByLabel('Name').fill('Limits bay');
+		await page.getByLabel('Name', { exact: true }).fill('Limits bay');
 		await page.getByRole('button', { name: 'Add', exact: true }).click();
 		await page.waitForSelector(`[data-testid=location-${code}]`);
 		await page.getByRole('button', { name: `Edit limits of ${code}` }).click();

@@ -68,7 +68,7 @@ export function Materials() {
 						{MATERIAL_KINDS.map((k) => <option key={k} value={k}>{MATERIAL_KIND_LABELS[k]}</option>)}
 					</select>
 				</div>
-				<div><label className="field-label" htmlFor="mat-name">Name</label><input id="mat-name" className="field-input" value={name} onChange={(e) => setName(e.target.value)} /></div>
+				<div><label className="field-label" htmlFor="mat-name">Material name</label><input id="mat-name" className="field-input" value={name} onChange={(e) => setName(e.target.value)} /></div>
 				<div><label className="field-label" htmlFor="mat-cure">Cure (h)</label><input id="mat-cure" inputMode="decimal" className="field-input" disabled={kind !== 'sealant'} value={kind === 'sealant' ? cure : ''} onChange={(e) => setCure(e.target.value)} /></div>
 				<button className="btn-primary self-end" type="submit" disabled={add.isPending}>Add material</button>
 			</form>
