@@ -136,3 +136,12 @@ export async function sampleJpeg(width = 1600, height = 1200, exif?: Record<stri
 	if (exif) img = img.withExif(exif);
 	return img.toBuffer();
 }
+
+/** A front photo uploaded over tus to a specimen (and a check), waited for until recorded; its photo id. */
+export async function uploadPhoto(cookie: string, specimen: string, name: string, checkId?: string): Promise<string> {
+	const meta: Record<string, string> = { filename: name, filetype: 'image/jpeg', specimenId: specimen, view: 'front', stage: 'as-found', ...(checkId ? { checkId } : {}) };
+	const { id } = await tusUpload(await sampleJpeg(1200, 900), { cookie, meta });
+	const done = await settled(cookie, id);
+	if (!done.photoId) throw new Error(`upload ${name}: ${done.state} ${done.reason}`);
+	return done.photoId;
+}

@@ -4,7 +4,8 @@ import { QueryTypes } from 'sequelize';
 import { call, useTestDatabase } from '../helpers/server.ts';
 import { reportOf } from '../helpers/pdf.ts';
 import { signedInUser } from '../helpers/users.ts';
-import { newSpecimen, submittedCheck } from '../helpers/checks.ts';
+import { gradedCheck, newSpecimen, submittedCheck } from '../helpers/checks.ts';
+import { openCheck, uploadPhoto } from '../helpers/photos.ts';
 import { db } from '../../src/lib/server/db.ts';
 import { CHECK_LABELS, PARTS, type Grade, type Part } from '../../src/lib/check/vocabulary.ts';
 
@@ -77,6 +78,23 @@ describe('GET /api/checks/[id]/report.pdf', () => {
 		expect(all).toContain(specimen.objectNumber);
 		expect(all).toContain('No photographs were taken for this check.');
 		expect(all).toContain('Not yet reviewed');
+	});
+
+	it('takes the changes since the previous check from a saved comparison when there is one', async () => {
+		const conservator = await signedInUser('conservator', 'report-cmp');
+		const specimen = await newSpecimen(conservator.cookie, 'RPC');
+		const earlier = await openCheck(conservator.cookie, specimen.id);
+		const put = await call(`/api/checks/${earlier.id}`, { cookie: conservator.cookie, method: 'PUT', json: { version: earlier.version, check: { ...gradedCheck(), checkedOn: '2025-06-01' } } });
+		expect(put.status).toBe(200);
+		const later = await openCheck(conservator.cookie, specimen.id);
+		const [before, after] = await Promise.all([uploadPhoto(conservator.cookie, specimen.id, 'before.jpg', earlier.id), uploadPhoto(conservator.cookie, specimen.id, 'after.jpg', later.id)]);
+		const unsaved = (await pdfOf(later.id)).pages.join('\n');
+		expect(unsaved).toContain('No comparison has been saved for these photographs.');
+		const saved = await call(`/api/specimens/${specimen.id}/comparisons`, { cookie: conservator.cookie, json: { beforePhotoId: before, afterPhotoId: after, model: 'none', controlPoints: [], note: '' } });
+		expect(saved.status).toBe(201);
+		const text = (await pdfOf(later.id)).pages.join('\n');
+		expect(text).toContain('Compared with the check of 2025-06-01.');
+		expect(text).toContain('From the saved comparison.');
 	});
 
 	it('refuses the signed-out (401) and answers 404 for an unknown check', async () => {

@@ -3,7 +3,7 @@ import { QueryTypes } from 'sequelize';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { baseUrl, call, useTestDatabase } from '../helpers/server.ts';
 import { signedInUser } from '../helpers/users.ts';
-import { makeSpecimen, openCheck, sampleJpeg, settled, tusUpload } from '../helpers/photos.ts';
+import { makeSpecimen, openCheck, uploadPhoto } from '../helpers/photos.ts';
 import { db } from '../../src/lib/server/db.ts';
 import { analysePair, summaryOf, type ComparedPhoto, type ControlPair } from '../../src/lib/compare/index.ts';
 import type { ComparisonSourcePhoto, ComparisonSources, ComparisonView, FluidColourAnswer } from '../../src/lib/compare/view.ts';
@@ -29,13 +29,7 @@ let strangerId: string;
 
 const t = '2026-12-01T10:00:00.000Z';
 
-async function upload(cookie: string, specimen: string, name: string, checkId?: string): Promise<string> {
-	const meta: Record<string, string> = { filename: name, filetype: 'image/jpeg', specimenId: specimen, view: 'front', stage: 'as-found', ...(checkId ? { checkId } : {}) };
-	const { id } = await tusUpload(await sampleJpeg(1200, 900), { cookie, meta });
-	const done = await settled(cookie, id);
-	if (!done.photoId) throw new Error(`upload ${name}: ${done.state} ${done.reason}`);
-	return done.photoId;
-}
+const upload = uploadPhoto;
 
 async function mark(photoId: string, marks: Mark[]): Promise<void> {
 	const layer: MarkLayer = { schemaVersion: 1, marks, comments: [] };
