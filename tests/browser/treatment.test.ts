@@ -42,6 +42,8 @@ describe('a treatment from plan to completion', () => {
 		await page.screenshot({ path: screenshotPath('treatment-risk-submitted'), fullPage: true });
 
 		await signInAs(page, 'reviewer', '/');
+		await page.locator('[data-testid=queue-risk]', { hasText: s.objectNumber }).waitFor();
+		await page.screenshot({ path: screenshotPath('review-queue'), fullPage: true });
 		await page.locator('[data-testid=queue-risk]', { hasText: s.objectNumber }).getByRole('link', { name: s.objectNumber }).click();
 		await page.waitForURL((u) => u.pathname === treatmentPath);
 		await islandsReady(page);
@@ -94,6 +96,9 @@ describe('a treatment from plan to completion', () => {
 		expect(await page.getByRole('button', { name: 'Save the treatment' }).count()).toBe(0);
 		await page.screenshot({ path: screenshotPath('treatment-completed'), fullPage: true });
 
+		await page.goto(new URL(`/specimens/${s.id}`, page.url()).href);
+		await page.locator('[data-testid=treatment-rows]').waitFor();
+		await page.locator('[data-testid=treatments]').screenshot({ path: screenshotPath('specimen-treatments') });
 		// The after check's report, downloaded from its page, carries the treatment.
 		await page.goto(new URL(`/checks/${after.id}`, page.url()).href);
 		const href = await page.locator('[data-testid=report-link]').getAttribute('href');

@@ -40,7 +40,7 @@ export function ReviewQueue() {
 							{i.previous ? (
 								<>
 									<GradeBadge grade={i.previous.overallGrade as Grade | null} /> → <GradeBadge grade={i.check.overallGrade} />
-									<span className="text-ink-600">since {i.previous.checkedOn}</span>
+									<span className="text-ink-600">(last approved {i.previous.checkedOn})</span>
 								</>
 							) : (
 								<>
