@@ -20,5 +20,8 @@ export default getViteConfig({
 		// Two cores: integration and browser files share one server; keep the load on it modest.
 		maxWorkers: 2,
 		minWorkers: 1,
+		// The reliability files load, break and restore the machine on purpose: one at a time, so
+		// none measures another's load.
+		fileParallelism: process.env.MENISCUS_TEST_SCOPE !== 'reliability',
 	},
 });
