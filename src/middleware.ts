@@ -7,6 +7,7 @@ import { audit } from './lib/server/audit.ts';
 import { db } from './lib/server/db.ts';
 import { forbiddenPage } from './lib/server/pages.ts';
 import { setAuthCookie } from './lib/server/cookies.ts';
+import { isDatabaseUnavailable, UNAVAILABLE_MESSAGE } from './lib/server/dbErrors.ts';
 
 // Every request: security headers, the same-origin rule for changes, then who is asking and whether
 // the route's rule (src/lib/auth/permissions.ts) lets them. Deny by default: a route without a rule
@@ -19,7 +20,25 @@ const init = defineMiddleware((_ctx, next) => {
 	return next();
 });
 
+const isApi = (path: string) => path === '/api' || path.startsWith('/api/');
+
 const headers = defineMiddleware(async (_ctx, next) => withHeaders(await next(), SECURITY_HEADERS));
+
+/**
+ * The database stopped, crashed or is restarting: answer 503 with Retry-After rather than 500. The
+ * transaction the request was in is gone whole (PostgreSQL); the client may send it again.
+ */
+const unavailable = defineMiddleware(async (ctx, next) => {
+	try {
+		return await next();
+	} catch (err) {
+		if (!isDatabaseUnavailable(err)) throw err;
+		console.error(`[db] ${ctx.request.method} ${ctx.url.pathname}: database unavailable (${(err as Error).message})`);
+		const headers = { 'retry-after': '5', 'cache-control': 'no-store' };
+		if (isApi(ctx.url.pathname)) return Response.json({ error: UNAVAILABLE_MESSAGE }, { status: 503, headers });
+		return new Response(UNAVAILABLE_MESSAGE, { status: 503, headers: { ...headers, 'content-type': 'text/plain; charset=utf-8' } });
+	}
+});
 
 const sameOrigin = defineMiddleware(async (ctx, next) => {
 	if (isCrossSite(ctx.request, ctx.url.origin)) {
@@ -34,8 +53,6 @@ const sameOrigin = defineMiddleware(async (ctx, next) => {
 	}
 	return next();
 });
-
-const isApi = (path: string) => path === '/api' || path.startsWith('/api/');
 
 const access = defineMiddleware(async (ctx, next) => {
 	const sessionId = ctx.cookies.get(sessionCookieName())?.value;
@@ -75,4 +92,4 @@ const access = defineMiddleware(async (ctx, next) => {
 	return forbiddenPage(message, status);
 });
 
-export const onRequest = sequence(init, headers, sameOrigin, access);
+export const onRequest = sequence(init, headers, unavailable, sameOrigin, access);

@@ -19,7 +19,12 @@ export function db(): Sequelize {
 }
 
 export function pgPool(): pg.Pool {
-	pool ??= new pg.Pool({ connectionString: config().DATABASE_URL, max: 5 });
+	if (!pool) {
+		pool = new pg.Pool({ connectionString: config().DATABASE_URL, max: 5 });
+		// An idle client whose server went away emits 'error' on the pool; unheard, it would end the
+		// process. The pool drops that client and opens a new one when the server is back.
+		pool.on('error', (err) => console.error(`[db] idle connection lost: ${err.message}`));
+	}
 	return pool;
 }
 
