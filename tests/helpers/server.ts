@@ -25,12 +25,15 @@ export interface Req {
 	form?: Record<string, string>;
 	origin?: string | null;
 	headers?: Record<string, string>;
+	/** Another app instance than the global one (fault tests start their own). */
+	base?: string;
 }
 
 export async function call(path: string, r: Req = {}): Promise<Response> {
 	const headers: Record<string, string> = { ...r.headers };
 	const method = r.method ?? (r.json !== undefined || r.form ? 'POST' : 'GET');
-	if (r.origin !== null && method !== 'GET') headers.origin = r.origin ?? baseUrl();
+	const root = r.base ?? baseUrl();
+	if (r.origin !== null && method !== 'GET') headers.origin = r.origin ?? root;
 	if (r.cookie) headers.cookie = r.cookie;
 	let body: string | undefined;
 	if (r.json !== undefined) {
@@ -40,7 +43,7 @@ export async function call(path: string, r: Req = {}): Promise<Response> {
 		headers['content-type'] = 'application/x-www-form-urlencoded';
 		body = new URLSearchParams(r.form).toString();
 	}
-	return fetch(baseUrl() + path, { method, headers, body, redirect: 'manual' });
+	return fetch(root + path, { method, headers, body, redirect: 'manual' });
 }
 
 /** The session cookie ("name=value") a response sets, or null. */
