@@ -23,16 +23,18 @@ export interface Req {
 	cookie?: string;
 	json?: unknown;
 	form?: Record<string, string>;
+	/** A body sent exactly as given (hostile-input tests); its content type goes in `headers`. */
+	raw?: string;
 	origin?: string | null;
 	headers?: Record<string, string>;
 }
 
 export async function call(path: string, r: Req = {}): Promise<Response> {
 	const headers: Record<string, string> = { ...r.headers };
-	const method = r.method ?? (r.json !== undefined || r.form ? 'POST' : 'GET');
+	const method = r.method ?? (r.json !== undefined || r.form || r.raw !== undefined ? 'POST' : 'GET');
 	if (r.origin !== null && method !== 'GET') headers.origin = r.origin ?? baseUrl();
 	if (r.cookie) headers.cookie = r.cookie;
-	let body: string | undefined;
+	let body: string | undefined = r.raw;
 	if (r.json !== undefined) {
 		headers['content-type'] = 'application/json';
 		body = JSON.stringify(r.json);

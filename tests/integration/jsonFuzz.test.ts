@@ -1,0 +1,114 @@
+import fc from 'fast-check';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { call, useTestDatabase } from '../helpers/server.ts';
+import { specimenRecord } from '../helpers/specimens.ts';
+import { auditCount, buildWorld, worldLayer, worldRows, type World } from '../helpers/world.ts';
+import { writeRoutes, type WriteRoute } from '../helpers/writeRoutes.ts';
+import type { MarkLayer } from '../../src/lib/marks/schema.ts';
+
+/**
+ * TESTPLAN B5 (ASVS 5.0 2.2.1/2.2.2 positive validation, 15.3.6 no prototype pollution; fast-check
+ * fuzzing): hostile JSON against every API route that takes a JSON body, each as the role its rule
+ * admits, on records of our own. Every answer is a 4xx with a JSON error, never a 500, and nothing
+ * the body names is stored: the rows and the audit trail read the same afterwards.
+ */
+let w: World;
+let routes: WriteRoute[];
+
+beforeAll(async () => {
+	useTestDatabase();
+	w = await buildWorld('fuzz');
+	routes = writeRoutes(w);
+});
+
+const PROTO_KEYS = ['__proto__', 'constructor', 'prototype'];
+/** Top-level names the routes really read, so fuzzed values reach past the first schema check. */
+const KEYS = ['version', 'check', 'record', 'layer', 'comparison', 'decision', 'comment', 'fileNames', 'csv', 'mapping', 'corrects', 'code', 'name', 'email', 'role', ...PROTO_KEYS];
+/** Numbers that pass a plain `z.number()` but not a database integer column or a sane range. */
+const edgeNumber = fc.constantFrom(2 ** 31, 2 ** 53 + 2, 1e308, -1, -0, 0.5, 5e-324);
+const value = fc.oneof(fc.jsonValue({ maxDepth: 3 }), edgeNumber, fc.string({ maxLength: 40 }));
+const nest = (n: number, open: string, close: string, inner = '1') => open.repeat(n) + inner + close.repeat(n);
+
+/** Bodies as sent on the wire: some are not JSON at all, some are deep or huge, some smuggle prototype keys. */
+const hostileBody = fc.oneof(
+	fc.json({ maxDepth: 4 }),
+	fc.anything({ maxDepth: 3 }).map((v) => JSON.stringify(v) ?? 'null'),
+	fc.dictionary(fc.constantFrom(...KEYS), value, { minKeys: 1, maxKeys: 4 }).map((o) => JSON.stringify(o)),
+	fc.constantFrom(...PROTO_KEYS).map((k) => `{"${k}":{"polluted":true,"prototype":{"polluted":true}},"version":0}`),
+	fc.integer({ min: 1_000, max: 40_000 }).map((n) => nest(n, '[', ']')),
+	fc.integer({ min: 1_000, max: 30_000 }).map((n) => nest(n, '{"layer":', '}')),
+	fc.integer({ min: 200_000, max: 400_000 }).map((n) => JSON.stringify({ version: 0, note: 'x'.repeat(n) })),
+	fc.string({ maxLength: 60 }),
+);
+// `{}` is itself a valid request to open a check (nothing to correct), so it is no hostile input.
+const notEmptyObject = (body: string) => body.replace(/\s/g, '') !== '{}';
+
+const send = (r: WriteRoute, body: string) => call(r.path, { method: r.method, cookie: r.who.cookie, raw: body, headers: { 'content-type': 'application/json' } });
+
+async function expectJsonRefusal(res: Response, what: string): Promise<void> {
+	const text = await res.text();
+	expect(res.status, `${what}: ${text.slice(0, 200)}`).toBeGreaterThanOrEqual(400);
+	expect(res.status, `${what}: ${text.slice(0, 200)}`).toBeLessThan(500);
+	expect(res.headers.get('content-type'), what).toMatch(/^application\/json/);
+	expect(typeof JSON.parse(text).error, what).toBe('string');
+}
+
+describe('hostile JSON on every write route', () => {
+	it('finds the write routes from the route table, the JSON ones and the one that takes no body', () => {
+		expect(routes.filter((r) => r.json).length).toBeGreaterThan(20);
+		// A new route without a JSON body shows up here and must get its own hostile-input test.
+		expect(routes.filter((r) => !r.json).map((r) => `${r.method} ${r.pattern}`)).toEqual(['POST /api/users/[id]/invitation']);
+	});
+
+	it('answers every fuzzed body with a 4xx and a JSON error, and stores nothing', async () => {
+		const rows = await worldRows(w);
+		const audits = await auditCount(w);
+		for (const r of routes.filter((x) => x.json)) {
+			await fc.assert(
+				fc.asyncProperty(hostileBody.filter(notEmptyObject), async (body) => {
+					await expectJsonRefusal(await send(r, body), `${r.method} ${r.pattern} as ${r.role} with ${body.slice(0, 80)}`);
+				}),
+				{ numRuns: 25 },
+			);
+		}
+		expect(await worldRows(w)).toEqual(rows);
+		expect(await auditCount(w)).toBe(audits);
+	}, 60_000);
+});
+
+describe('prototype keys', () => {
+	const layerWith = (extra: string, version: number, layer: MarkLayer) => {
+		const text = JSON.stringify({ version, layer });
+		// JSON.parse makes "__proto__" an own key; inserting it as text is the only way to send one.
+		return text.replace('"schemaVersion":1', `"schemaVersion":1,${extra}`).replace('"kind":"path"', `"kind":"path",${extra}`);
+	};
+
+	it('are refused inside a mark layer and a specimen record, and never show up in what is read back', async () => {
+		const before = await (await call(`/api/photos/${w.photoId}/marks`, { cookie: w.a.cookie })).json();
+		for (const extra of ['"__proto__":{"polluted":true}', '"constructor":{"prototype":{"polluted":true}}']) {
+			const res = await call(`/api/photos/${w.photoId}/marks`, { method: 'PUT', cookie: w.a.cookie, raw: layerWith(extra, before.version, before.layer), headers: { 'content-type': 'application/json' } });
+			await expectJsonRefusal(res, extra);
+			const { specimen } = await (await call(`/api/specimens/${w.specimenId}`, { cookie: w.a.cookie })).json();
+			// The record as it was made, valid but for the smuggled key.
+			const specimenBody = JSON.stringify({ version: specimen.version, record: specimenRecord('x', { objectNumber: w.objectNumber }) }).replace('{"objectNumber"', `{${extra},"objectNumber"`);
+			await expectJsonRefusal(await call(`/api/specimens/${w.specimenId}`, { method: 'PUT', cookie: w.a.cookie, raw: specimenBody, headers: { 'content-type': 'application/json' } }), `specimen ${extra}`);
+		}
+		const after = await call(`/api/photos/${w.photoId}/marks`, { cookie: w.a.cookie });
+		const text = await after.text();
+		expect(text).not.toMatch(/polluted/);
+		expect(JSON.parse(text)).toMatchObject({ version: before.version, layer: before.layer });
+	});
+});
+
+describe('a valid mark layer after all that', () => {
+	it('still saves and reads back exactly, with no property it was not sent', async () => {
+		const { version } = await (await call(`/api/photos/${w.photoId}/marks`, { cookie: w.a.cookie })).json();
+		const layer = worldLayer(w.a.id);
+		layer.marks.push({ id: 'pin', kind: 'pin', part: 'label', term: 'faded', severity: 1, note: 'Ink faded: {{7*7}} <b>', at: [300, 200], authorId: w.a.id, createdAt: '2026-12-02T09:30:00.000Z', updatedAt: '2026-12-02T09:30:00.000Z' });
+		const res = await call(`/api/photos/${w.photoId}/marks`, { method: 'PUT', cookie: w.a.cookie, json: { version, layer } });
+		expect(res.status, await res.clone().text()).toBe(200);
+		const back = await (await call(`/api/photos/${w.photoId}/marks`, { cookie: w.b.cookie })).json();
+		expect(back.version).toBe(version + 1);
+		expect(back.layer).toEqual(layer);
+	});
+});
