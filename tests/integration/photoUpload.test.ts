@@ -1,11 +1,10 @@
 import fs from 'node:fs';
-import http from 'node:http';
 import path from 'node:path';
 import zlib from 'node:zlib';
 import sharp from 'sharp';
 import exifr from 'exifr';
 import { beforeAll, describe, expect, inject, it } from 'vitest';
-import { baseUrl, call, useTestDatabase } from '../helpers/server.ts';
+import { call, rawRequest, useTestDatabase } from '../helpers/server.ts';
 import { cookieFor, makeUser } from '../helpers/users.ts';
 import { makeSpecimen, openCheck, sampleJpeg, settled, sha256, tusMetadata, tusUpload } from '../helpers/photos.ts';
 import { Photo, PhotoUpload } from '../../src/lib/server/models/index.ts';
@@ -251,17 +250,7 @@ describe('who may upload where', () => {
 });
 
 /** The status of a GET whose path is sent exactly as written. */
-function rawStatus(path: string, cookie: string): Promise<number> {
-	const u = new URL(baseUrl());
-	return new Promise((resolve, reject) => {
-		const req = http.request({ host: u.hostname, port: u.port, path, method: 'GET', headers: { cookie } }, (res) => {
-			res.resume();
-			resolve(res.statusCode ?? 0);
-		});
-		req.on('error', reject);
-		req.end();
-	});
-}
+const rawStatus = async (path: string, cookie: string): Promise<number> => (await rawRequest('GET', path, { cookie })).status;
 
 describe('derivative sets', () => {
 	it('are replaced whole when remade, and the old set is removed', async () => {
