@@ -8,7 +8,7 @@ import type { Person, World } from './world.ts';
 /**
  * Every API route that changes something, read from the route files and ROUTE_RULES (so a new
  * route is picked up without touching the tests), with its parameters filled from a World and the
- * first role its rule admits. The tus endpoint is left to the tus tests: it takes bytes, not JSON.
+ * first role its rule admits. The tus endpoint counts as a write route but not a JSON one: it takes bytes.
  */
 export interface WriteRoute {
 	pattern: string;
@@ -36,22 +36,38 @@ function idFor(resource: string, w: World): string {
 		locations: w.locationId,
 	};
 	const id = ids[resource];
-	if (!id) throw new Error(`no World record for /api/${resource}/[id]: add one to tests/helpers/world.ts`);
+	if (!id) throw new Error(`no World record for /${resource}/[id]: add one to tests/helpers/world.ts`);
 	return id;
 }
 
+/** A route pattern with each parameter filled from the World (`[...path]`: a tile's info, or A's upload). */
 export function fillPath(pattern: string, w: World): string {
-	const resource = pattern.split('/')[2] ?? '';
-	return pattern.replace('[id]', () => idFor(resource, w)).replace('[photo]', w.photoId);
+	const segs = pattern.split('/');
+	return segs
+		.map((seg, i) => {
+			if (seg === '[id]') return idFor(segs[i - 1] ?? '', w);
+			if (seg === '[photo]') return w.photoId;
+			if (seg === '[token]') return 'x'.repeat(43);
+			if (seg === '[...path]') return segs[i - 1] === 'tiles' ? 'info.json' : w.uploadPath.split('/').pop()!;
+			return seg;
+		})
+		.join('/');
 }
 
 export function personFor(role: Role, w: World): Person {
 	return { conservator: w.a, reviewer: w.reviewer, curator: w.curator, admin: w.admin }[role];
 }
 
+/** Every route and method that only reads (GET), filled from the World. */
+export function readRoutes(w: World): { pattern: string; path: string }[] {
+	return routeFiles()
+		.filter((f) => f.methods.includes('GET'))
+		.map((f) => ({ pattern: f.pattern, path: fillPath(f.pattern, w) }));
+}
+
 export function writeRoutes(w: World): WriteRoute[] {
 	return routeFiles()
-		.filter((f) => f.pattern.startsWith('/api/') && !NOT_JSON.has(f.pattern))
+		.filter((f) => f.pattern.startsWith('/api/'))
 		.flatMap((f) => {
 			const src = fs.readFileSync(path.resolve('src/pages', f.file), 'utf8');
 			return f.methods
@@ -59,7 +75,7 @@ export function writeRoutes(w: World): WriteRoute[] {
 				.map((method) => {
 					const access = ROUTE_RULES[f.pattern]![method]!;
 					const role: Role = access === 'public' || access === 'signed-in' ? 'conservator' : access[0]!;
-					return { pattern: f.pattern, method, path: fillPath(f.pattern, w), json: JSON_HELPERS.test(src), who: personFor(role, w), role };
+					return { pattern: f.pattern, method, path: fillPath(f.pattern, w), json: !NOT_JSON.has(f.pattern) && JSON_HELPERS.test(src), who: personFor(role, w), role };
 				});
 		});
 }
