@@ -51,6 +51,7 @@ describe('SQL in the register’s search and filters', () => {
 
 	it('answers every payload in every parameter with 200 or 400, never a 500, and changes nothing', async () => {
 		const before = await mine();
+		expect(before).toHaveLength(2);
 		const targets: [string, string[]][] = [
 			['/api/specimens', Object.keys(RegisterQuerySchema.shape)],
 			['/api/specimens/export', Object.keys(RegisterQuerySchema.shape)],

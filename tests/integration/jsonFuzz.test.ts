@@ -4,6 +4,7 @@ import { call, useTestDatabase } from '../helpers/server.ts';
 import { specimenRecord } from '../helpers/specimens.ts';
 import { auditCount, buildWorld, worldLayer, worldRows, type World } from '../helpers/world.ts';
 import { writeRoutes, type WriteRoute } from '../helpers/writeRoutes.ts';
+import { validWrites } from '../helpers/validWrites.ts';
 import type { MarkLayer } from '../../src/lib/marks/schema.ts';
 
 /**
@@ -111,4 +112,64 @@ describe('a valid mark layer after all that', () => {
 		expect(back.version).toBe(version + 1);
 		expect(back.layer).toEqual(layer);
 	});
+});
+
+/** Every path to a leaf (a value that is no object or array) of a JSON value. */
+function leafPaths(v: unknown, at: (string | number)[] = []): (string | number)[][] {
+	if (Array.isArray(v)) return v.flatMap((x, i) => leafPaths(x, [...at, i]));
+	if (v && typeof v === 'object') return Object.entries(v).flatMap(([k, x]) => leafPaths(x, [...at, k]));
+	return [at];
+}
+
+function withLeaf(body: unknown, at: (string | number)[], value: unknown): unknown {
+	const copy = structuredClone(body) as Record<string | number, unknown>;
+	let node = copy;
+	for (const k of at.slice(0, -1)) node = node[k] as Record<string | number, unknown>;
+	node[at.at(-1)!] = value;
+	return copy;
+}
+
+describe('valid bodies with one value made hostile', () => {
+	// Deep, huge, of the wrong kind, or numbers a database column cannot hold: each reaches the
+	// schema's inner checks (and past them, the database) instead of failing at the top.
+	// Deep and huge values are made inside the property from their size, so that fast-check can
+	// print a failing case without walking five thousand levels.
+	type Leaf = { deep: number } | { long: number } | { value: unknown };
+	const leafChoice: fc.Arbitrary<Leaf> = fc.oneof(
+		fc.integer({ min: 50, max: 5_000 }).map((deep) => ({ deep })),
+		fc.integer({ min: 10_001, max: 60_000 }).map((long) => ({ long })),
+		fc
+			.oneof(
+				edgeNumber,
+				fc.constantFrom(2 ** 63, -(2 ** 31) - 1, 1e-7),
+				fc.constant(JSON.parse('{"__proto__":{"polluted":true}}')),
+				fc.constantFrom('', ' ', '\u0000', '\ud800', 'NaN', '1e308', '2026-02-30', '00000000-0000-0000-0000-000000000000'),
+				fc.jsonValue({ maxDepth: 2 }),
+			)
+			.map((value) => ({ value })),
+	);
+	const HOLE = '\u0001hole\u0001';
+	/** The body as sent, with the leaf at `at` replaced (a deep value spliced in as text: JSON.stringify recurses). */
+	const bodyText = (body: unknown, at: (string | number)[], l: Leaf): string => {
+		if (!('deep' in l)) return JSON.stringify(withLeaf(body, at, 'long' in l ? 'x'.repeat(l.long) : l.value));
+		return JSON.stringify(withLeaf(body, at, HOLE)).replace(JSON.stringify(HOLE), nest(l.deep, '[', ']', '0'));
+	};
+
+	it('never answers with a 500, and refusals carry a JSON error', async () => {
+		// Submitting or approving would close the check to the rest; those bodies are one version number.
+		for (const c of validWrites(w).filter((x) => !['submitting a check', 'reviewing a check'].includes(x.name))) {
+			const body = await c.body();
+			const paths = leafPaths(body);
+			if (paths.length === 0) continue;
+			await fc.assert(
+				fc.asyncProperty(fc.constantFrom(...paths), leafChoice, async (at, leaf) => {
+					const res = await call(c.path, { method: c.method, cookie: c.who.cookie, raw: bodyText(body, at, leaf), headers: { 'content-type': 'application/json' } });
+					const what = `${c.name}: ${at.join('.')} = ${JSON.stringify(leaf).slice(0, 80)}`;
+					if (res.status >= 400) await expectJsonRefusal(res, what);
+					else expect(res.status, what).toBeLessThan(300);
+				}),
+				{ numRuns: 30 },
+			);
+		}
+	}, 60_000);
 });
