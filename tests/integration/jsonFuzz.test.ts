@@ -155,6 +155,18 @@ describe('valid bodies with one value made hostile', () => {
 		return JSON.stringify(withLeaf(body, at, HOLE)).replace(JSON.stringify(HOLE), nest(l.deep, '[', ']', '0'));
 	};
 
+	it('refuses a NUL in a text field with a 400 (PostgreSQL cannot store one: it was a 500)', async () => {
+		const rows = await worldRows(w);
+		// A free-text field of each, so that nothing but the NUL is wrong with the body.
+		const freeText: Record<string, string[]> = { 'saving a check': ['check', 'notes'], 'editing a specimen': ['record', 'title'], 'saving a comparison': ['comparison', 'note'] };
+		for (const c of validWrites(w).filter((x) => x.name in freeText)) {
+			const body = await c.body();
+			const at = freeText[c.name]!;
+			await expectJsonRefusal(await call(c.path, { method: c.method, cookie: c.who.cookie, json: withLeaf(body, at, 'before\u0000after') }), `${c.name}: ${at.join('.')}`);
+		}
+		expect(await worldRows(w)).toEqual(rows);
+	});
+
 	it('never answers with a 500, and refusals carry a JSON error', async () => {
 		// Submitting or approving would close the check to the rest; those bodies are one version number.
 		for (const c of validWrites(w).filter((x) => !['submitting a check', 'reviewing a check'].includes(x.name))) {
