@@ -18,7 +18,8 @@ import { CheckExportQuerySchema } from '../../src/lib/check/exportQuery.ts';
 let cookie: string;
 const tag = `SQLI${process.pid}`;
 const title = `Newt ${tag} '); DROP TABLE specimens; --`;
-const department = `O'Brien "wet" 100%_\\ ${tag}`;
+// No "%" in what is stored: specimens.test.ts counts on no record holding one.
+const department = `O'Brien "wet" 100_\\ ${tag}`;
 
 const PAYLOADS = ["' OR 1=1 --", "'); DROP TABLE specimens; --", "%' UNION SELECT password_hash FROM users --", '\\', '%_%', '$1', "'::int", '1)) OR pg_sleep(5) --', '\u0000', `${'x'.repeat(99)}'`];
 
@@ -46,7 +47,7 @@ describe('SQL in the register’s search and filters', () => {
 		// A LIKE wildcard or an escape in the text is a character, not a pattern.
 		expect(await rows({ q: `${tag}%` })).toEqual([]);
 		expect(await rows({ q: 'Newt _' })).toEqual([]);
-		expect(await rows({ department: `O'Brien "wet" 100%` })).toEqual([]);
+		expect(await rows({ department: `O'Brien "wet" 100_` })).toEqual([]);
 	});
 
 	it('answers every payload in every parameter with 200 or 400, never a 500, and changes nothing', async () => {

@@ -66,7 +66,8 @@ describe('reading A’s draft (everyone signed in reads records)', () => {
 	it('answers a missing photo the same on every photo route, whoever asks', async () => {
 		const missing = await readPaths(MISSING);
 		for (const what of ['photo', 'marks', 'thumbnail', 'display', 'tile info', 'tile'] as const) {
-			const [b, c] = [await answerOf(await call(missing[what], { cookie: w.b.cookie })), await answerOf(await call(missing[what], { cookie: w.curator.cookie }))];
+			const path = missing[what]!;
+			const [b, c] = [await answerOf(await call(path, { cookie: w.b.cookie })), await answerOf(await call(path, { cookie: w.curator.cookie }))];
 			expect(b.status, what).toBe(404);
 			expect(c, what).toEqual(b);
 		}

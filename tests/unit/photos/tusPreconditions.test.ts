@@ -9,7 +9,7 @@ const ok = { 'tus-resumable': '1.0.0' };
 describe('tusPrecondition', () => {
 	it('must 412 with Tus-Version on a missing or unsupported protocol version, for every method but OPTIONS', () => {
 		for (const method of ['POST', 'HEAD', 'PATCH', 'DELETE']) {
-			for (const headers of [{}, { 'tus-resumable': '0.2.2' }, { 'tus-resumable': '1.0.0, 0.2.2' }]) {
+			for (const headers of [{}, { 'tus-resumable': '0.2.2' }, { 'tus-resumable': '1.0.0, 0.2.2' }] as Record<string, string>[]) {
 				const res = tusPrecondition(req(method, '/api/uploads/ab', headers), '/api/uploads');
 				expect(res?.status, `${method} ${JSON.stringify(headers)}`).toBe(412);
 				expect(res?.headers.get('tus-version')).toBe('1.0.0');
