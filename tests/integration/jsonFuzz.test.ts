@@ -167,6 +167,17 @@ describe('valid bodies with one value made hostile', () => {
 		expect(await worldRows(w)).toEqual(rows);
 	});
 
+	it('refuses a size or a limit the database would round to 0 with a 400 (it was a 500)', async () => {
+		const rows = await worldRows(w);
+		const edit = validWrites(w).find((c) => c.name === 'editing a specimen')!;
+		const body = await edit.body();
+		for (const at of [['record', 'innerWidthMm'], ['record', 'innerHeightMm']]) {
+			await expectJsonRefusal(await call(edit.path, { method: 'PUT', cookie: edit.who.cookie, json: withLeaf(body, at, 1e-7) }), at.join('.'));
+		}
+		await expectJsonRefusal(await call(`/api/locations/${w.locationId}`, { method: 'PATCH', cookie: w.admin.cookie, json: { flammableLimitL: 0.01 } }), 'flammableLimitL');
+		expect(await worldRows(w)).toEqual(rows);
+	});
+
 	it('never answers with a 500, and refusals carry a JSON error', async () => {
 		// Submitting or approving would close the check to the rest; those bodies are one version number.
 		for (const c of validWrites(w).filter((x) => !['submitting a check', 'reviewing a check'].includes(x.name))) {
