@@ -155,14 +155,21 @@ describe('valid bodies with one value made hostile', () => {
 		return JSON.stringify(withLeaf(body, at, HOLE)).replace(JSON.stringify(HOLE), nest(l.deep, '[', ']', '0'));
 	};
 
-	it('refuses a NUL in a text field with a 400 (PostgreSQL cannot store one: it was a 500)', async () => {
+	it('refuses a NUL or a lone surrogate in a text field with a 400 (PostgreSQL cannot store them: they were 500s)', async () => {
 		const rows = await worldRows(w);
-		// A free-text field of each, so that nothing but the NUL is wrong with the body.
-		const freeText: Record<string, string[]> = { 'saving a check': ['check', 'notes'], 'editing a specimen': ['record', 'title'], 'saving a comparison': ['comparison', 'note'] };
+		// A free-text field of each, so that nothing but the character is wrong with the body.
+		const freeText: Record<string, (string | number)[]> = {
+			'saving a check': ['check', 'notes'],
+			'editing a specimen': ['record', 'title'],
+			'saving a comparison': ['comparison', 'note'],
+			'saving a mark layer': ['layer', 'marks', 0, 'note'],
+		};
 		for (const c of validWrites(w).filter((x) => x.name in freeText)) {
 			const body = await c.body();
 			const at = freeText[c.name]!;
-			await expectJsonRefusal(await call(c.path, { method: c.method, cookie: c.who.cookie, json: withLeaf(body, at, 'before\u0000after') }), `${c.name}: ${at.join('.')}`);
+			for (const bad of ['before\u0000after', 'before\ud800after', '\udc00']) {
+				await expectJsonRefusal(await call(c.path, { method: c.method, cookie: c.who.cookie, json: withLeaf(body, at, bad) }), `${c.name}: ${at.join('.')} = ${JSON.stringify(bad)}`);
+			}
 		}
 		expect(await worldRows(w)).toEqual(rows);
 	});
