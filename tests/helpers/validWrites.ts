@@ -1,6 +1,7 @@
 import { call } from './server.ts';
 import { specimenRecord } from './specimens.ts';
 import { gradedCheck } from './checks.ts';
+import { bodyOf } from './treatments.ts';
 import type { Person, World } from './world.ts';
 
 /**
@@ -58,6 +59,19 @@ export function validWrites(w: World): ValidWrite[] {
 			inner: 'layer',
 		},
 		{ name: 'changing one’s mail settings', method: 'PATCH', path: '/api/me/mail-preferences', who: w.b, body: async () => ({ checkSubmitted: false }) },
+		{
+			name: 'saving a treatment',
+			method: 'PUT',
+			path: `/api/treatments/${w.treatmentId}`,
+			who: w.a,
+			body: async () => {
+				const { treatment } = await json(`/api/treatments/${w.treatmentId}`, w.a.cookie);
+				return { version: treatment.version, treatment: bodyOf(treatment) };
+			},
+			inner: 'treatment',
+		},
+		{ name: 'opening a treatment', method: 'POST', path: `/api/specimens/${w.specimenId}/treatments`, who: w.b, body: async () => ({ title: 'Reseal', purpose: '' }) },
+		{ name: 'changing a material', method: 'PATCH', path: `/api/treatment-materials/${w.materialId}`, who: w.admin, body: async () => ({ note: 'Linen, waxed.' }) },
 		{ name: 'changing a store’s limits', method: 'PATCH', path: `/api/locations/${w.locationId}`, who: w.admin, body: async () => ({ nearLimitPercent: 75 }) },
 	];
 }

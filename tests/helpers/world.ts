@@ -4,15 +4,17 @@ import { call } from './server.ts';
 import { makeUser, signedInUser } from './users.ts';
 import { newSpecimen } from './checks.ts';
 import { openCheck, sampleJpeg, settled, tusMetadata, tusUpload } from './photos.ts';
+import { openTreatment } from './treatments.ts';
 import { db } from '../../src/lib/server/db.ts';
 import type { MarkLayer } from '../../src/lib/marks/schema.ts';
 
 /**
  * One conservator's own records, made over HTTP the way the app makes them, for the hostile-input
  * and access tests: a specimen, a draft check with a marked photo, a photo of the specimen, a saved
- * comparison of the two, an upload left unfinished, plus the other people who poke at them (a
- * second conservator, a reviewer, a curator, an administrator) and the administrator's own targets
- * (a user and a storage location). Nothing here touches the demo collection.
+ * comparison of the two, an upload left unfinished, a treatment just opened, plus the other people
+ * who poke at them (a second conservator, a reviewer, a curator, an administrator) and the
+ * administrator's own targets (a user, a storage location, a treatment material). Nothing here
+ * touches the demo collection.
  */
 export interface Person {
 	id: string;
@@ -35,9 +37,12 @@ export interface World {
 	comparisonId: string;
 	/** Path of a tus upload A created and never finished. */
 	uploadPath: string;
-	/** A user and a location only the administrator's requests aim at. */
+	/** A's treatment of the specimen, just opened. */
+	treatmentId: string;
+	/** A user, a location and a treatment material only the administrator's requests aim at. */
 	targetUserId: string;
 	locationId: string;
+	materialId: string;
 }
 
 const t = '2026-12-02T09:00:00.000Z';
@@ -85,6 +90,8 @@ export async function buildWorld(tag: string): Promise<World> {
 	expect(upload.status).toBe(201);
 	const location = await call('/api/locations', { cookie: admin.cookie, json: { code: `${tag.toUpperCase()}-${process.pid}`, name: `Test store ${tag}` } });
 	expect(location.status).toBe(201);
+	const material = await call('/api/treatment-materials', { cookie: admin.cookie, json: { kind: 'thread', name: `Test thread ${tag} ${process.pid}` } });
+	expect(material.status).toBe(201);
 	return {
 		a,
 		b,
@@ -98,8 +105,10 @@ export async function buildWorld(tag: string): Promise<World> {
 		specimenPhotoId,
 		comparisonId: (await compared.json()).comparison.id,
 		uploadPath: upload.headers.get('location')!,
+		treatmentId: (await openTreatment(a.cookie, specimen.id)).id,
 		targetUserId: (await makeUser('conservator', { tag: `${tag}-target` })).user.id,
 		locationId: (await location.json()).location.id,
+		materialId: (await material.json()).material.id,
 	};
 }
 
@@ -109,16 +118,18 @@ export async function buildWorld(tag: string): Promise<World> {
  */
 export async function worldRows(w: World): Promise<Record<string, unknown>> {
 	const q = (sql: string, id: string) => db().query<{ row: string }>(sql, { replacements: { id }, type: QueryTypes.SELECT }).then((r) => r.map((x) => x.row));
-	const [specimen, checks, layers, comparison, upload, user, location] = await Promise.all([
+	const [specimen, checks, layers, comparison, upload, treatments, user, location, material] = await Promise.all([
 		q(`SELECT row_to_json(s)::text AS row FROM specimens s WHERE id = :id`, w.specimenId),
 		q(`SELECT row_to_json(c)::text AS row FROM condition_checks c WHERE specimen_id = :id ORDER BY id`, w.specimenId),
 		q(`SELECT row_to_json(l)::text AS row FROM mark_layers l WHERE photo_id IN (SELECT id FROM photos WHERE specimen_id = :id) ORDER BY photo_id`, w.specimenId),
 		q(`SELECT row_to_json(c)::text AS row FROM photo_comparisons c WHERE specimen_id = :id ORDER BY id`, w.specimenId),
 		q(`SELECT row_to_json(u)::text AS row FROM photo_uploads u WHERE specimen_id = :id ORDER BY id`, w.specimenId),
+		q(`SELECT row_to_json(t)::text AS row FROM treatments t WHERE specimen_id = :id ORDER BY id`, w.specimenId),
 		q(`SELECT row_to_json(u)::text AS row FROM users u WHERE id = :id`, w.targetUserId),
 		q(`SELECT row_to_json(l)::text AS row FROM storage_locations l WHERE id = :id`, w.locationId),
+		q(`SELECT row_to_json(m)::text AS row FROM treatment_materials m WHERE id = :id`, w.materialId),
 	]);
-	return { specimen, checks, layers, comparison, upload, user, location };
+	return { specimen, checks, layers, comparison, upload, treatments, user, location, material };
 }
 
 /** How many audit events the world's people have caused: every stored change is audited with its actor. */

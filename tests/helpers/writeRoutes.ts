@@ -34,6 +34,8 @@ function idFor(resource: string, w: World): string {
 		comparisons: w.comparisonId,
 		users: w.targetUserId,
 		locations: w.locationId,
+		treatments: w.treatmentId,
+		'treatment-materials': w.materialId,
 	};
 	const id = ids[resource];
 	if (!id) throw new Error(`no World record for /${resource}/[id]: add one to tests/helpers/world.ts`);
