@@ -1,7 +1,8 @@
 import { defineMiddleware, sequence } from 'astro:middleware';
 import { decide } from './lib/auth/permissions.ts';
 import { checkSession, blankCookie, sessionCookieName } from './lib/server/auth/lucia.ts';
-import { SECURITY_HEADERS, isCrossSite, withHeaders } from './lib/server/security.ts';
+import { isCrossSite, securityHeaders, withHeaders } from './lib/server/security.ts';
+import { config } from './lib/server/config.ts';
 import { startOutboxWorker } from './lib/server/mail/outbox.ts';
 import { audit } from './lib/server/audit.ts';
 import { db } from './lib/server/db.ts';
@@ -22,7 +23,7 @@ const init = defineMiddleware((_ctx, next) => {
 
 const isApi = (path: string) => path === '/api' || path.startsWith('/api/');
 
-const headers = defineMiddleware(async (_ctx, next) => withHeaders(await next(), SECURITY_HEADERS));
+const headers = defineMiddleware(async (_ctx, next) => withHeaders(await next(), securityHeaders(config().secureCookies)));
 
 /**
  * The database stopped, crashed or is restarting: answer 503 with Retry-After rather than 500. The

@@ -72,6 +72,12 @@ export async function tusHead(url: string, cookie: string): Promise<{ status: nu
 	return { status: res.status, offset: Number(res.headers.get('upload-offset')), length: Number(res.headers.get('upload-length')), cacheControl: res.headers.get('cache-control') };
 }
 
+/** tus 1.0.0 Upload-Metadata: comma-separated `key base64(value)` pairs. */
+export const tusMetadata = (m: Record<string, string>) =>
+	Object.entries(m)
+		.map(([k, v]) => `${k} ${Buffer.from(v).toString('base64')}`)
+		.join(',');
+
 export const uploadIdOf = (url: string) => new URL(url, baseUrl()).pathname.split('/').pop()!;
 
 export async function makeSpecimen(cookie: string, prefix = 'PHT'): Promise<string> {

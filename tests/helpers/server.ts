@@ -1,3 +1,4 @@
+import http from 'node:http';
 import { inject } from 'vitest';
 import { readMailbox, type MailboxMessage } from '../../src/lib/server/mail/fakeSmtp.ts';
 
@@ -23,6 +24,8 @@ export interface Req {
 	cookie?: string;
 	json?: unknown;
 	form?: Record<string, string>;
+	/** A body sent exactly as given (hostile-input tests); its content type goes in `headers`. */
+	raw?: string;
 	origin?: string | null;
 	headers?: Record<string, string>;
 	/** Another app instance than the global one (fault tests start their own). */
@@ -31,11 +34,11 @@ export interface Req {
 
 export async function call(path: string, r: Req = {}): Promise<Response> {
 	const headers: Record<string, string> = { ...r.headers };
-	const method = r.method ?? (r.json !== undefined || r.form ? 'POST' : 'GET');
+	const method = r.method ?? (r.json !== undefined || r.form || r.raw !== undefined ? 'POST' : 'GET');
 	const root = r.base ?? baseUrl();
 	if (r.origin !== null && method !== 'GET') headers.origin = r.origin ?? root;
 	if (r.cookie) headers.cookie = r.cookie;
-	let body: string | undefined;
+	let body: string | undefined = r.raw;
 	if (r.json !== undefined) {
 		headers['content-type'] = 'application/json';
 		body = JSON.stringify(r.json);
@@ -82,3 +85,28 @@ export function linkIn(text: string): string {
 let n = 0;
 /** A unique example.org address for a test's own user. */
 export const uniqueEmail = (tag: string) => `${tag}-${process.pid}-${Date.now()}-${n++}@example.org`;
+
+export interface RawAnswer {
+	status: number;
+	headers: http.IncomingHttpHeaders;
+	body: string;
+}
+
+/**
+ * A request whose path goes on the wire exactly as written (fetch would resolve `../` and re-encode
+ * it), for the path-traversal tests. Unsafe methods carry the site's Origin, as call() sends it.
+ */
+export function rawRequest(method: string, path: string, headers: Record<string, string> = {}, body?: Buffer | string): Promise<RawAnswer> {
+	const u = new URL(baseUrl());
+	const all = { ...(method === 'GET' || method === 'HEAD' ? {} : { origin: u.origin }), ...headers, ...(body === undefined ? {} : { 'content-length': String(Buffer.byteLength(body)) }) };
+	return new Promise((resolve, reject) => {
+		const req = http.request({ host: u.hostname, port: u.port, path, method, headers: all }, (res) => {
+			const chunks: Buffer[] = [];
+			res.on('data', (c: Buffer) => chunks.push(c));
+			res.on('end', () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(chunks).toString('utf8') }));
+			res.on('error', reject);
+		});
+		req.on('error', reject);
+		req.end(body);
+	});
+}

@@ -2,7 +2,7 @@ import Papa from 'papaparse';
 import { QueryTypes } from 'sequelize';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { call, useTestDatabase } from '../helpers/server.ts';
-import { signedInUser } from '../helpers/users.ts';
+import { cookieFor, makeUser, signedInUser } from '../helpers/users.ts';
 import { gradedCheck, newSpecimen } from '../helpers/checks.ts';
 import { db } from '../../src/lib/server/db.ts';
 import { CHECK_LABELS } from '../../src/lib/check/vocabulary.ts';
@@ -58,6 +58,21 @@ describe('the condition checks CSV export', () => {
 		expect(data[0]![`${CHECK_LABELS.part.seal} grade`]).toBe('fair');
 		expect(data[0]!.State).toBe('draft');
 		for (const row of data) for (const v of Object.values(row)) expect(v).not.toMatch(/^[=+\-@\t\r]/);
+	});
+
+	it('defuses every character a spreadsheet starts a formula with, in the notes and in the examiner’s name', async () => {
+		// TESTPLAN B6; OWASP "CSV Injection"; ASVS 5.0 1.2.10: = + - @ tab and CR lead a formula.
+		const { user } = await makeUser('conservator', { tag: 'csvx-name' });
+		await user.update({ name: '@SUM(1+1)*cmd|/c calc' });
+		const examiner = await cookieFor(user.id);
+		const s = await newSpecimen(examiner, `CSVY.${process.pid}`);
+		for (const notes of ['=1+1', '+1+1', '-1+1', '@SUM(A1)']) {
+			const opened = await (await call(`/api/specimens/${s.id}/checks`, { cookie: examiner, json: {} })).json();
+			expect((await call(`/api/checks/${opened.check.id}`, { cookie: examiner, method: 'PUT', json: { version: opened.check.version, check: gradedCheck(notes) } })).status).toBe(200);
+		}
+		const { data } = await csv(`?specimen=${s.id}`);
+		expect(data.map((r) => r.Notes).sort()).toEqual(["'+1+1", "'-1+1", "'=1+1", "'@SUM(A1)"]);
+		for (const row of data) expect(row.Examiner).toBe("'@SUM(1+1)*cmd|/c calc");
 	});
 
 	it('filters by a range of days', async () => {

@@ -10,7 +10,7 @@ import { freePort } from '../../db/cluster.mjs';
 import { startService, stopService, waitForHttp, type Service } from '../../scripts/lib/proc.mjs';
 import { baseUrl, call, useTestDatabase } from '../helpers/server.ts';
 import { cookieFor, makeUser } from '../helpers/users.ts';
-import { makeSpecimen, openCheck, sampleJpeg, settled, sha256, sha256OfFile, tusHead, tusStart, tusUpload, writeTiff } from '../helpers/photos.ts';
+import { makeSpecimen, openCheck, sampleJpeg, settled, sha256, sha256OfFile, tusHead, tusMetadata, tusStart, tusUpload, writeTiff } from '../helpers/photos.ts';
 import { db } from '../../src/lib/server/db.ts';
 import { AuditEvent, Photo, PhotoUpload } from '../../src/lib/server/models/index.ts';
 
@@ -338,7 +338,7 @@ describe('checks that can no longer change', () => {
 		await submit(check);
 		if (state === 'approved') expect((await review(check.id, 'approve')).state).toBe('approved');
 		const m = checkMeta(check.id, 'late.jpg', 'image/jpeg');
-		const res = await call('/api/uploads/', { method: 'POST', cookie: conservator, headers: { 'tus-resumable': '1.0.0', 'upload-length': '1000', 'upload-metadata': tusMeta(m) } });
+		const res = await call('/api/uploads/', { method: 'POST', cookie: conservator, headers: { 'tus-resumable': '1.0.0', 'upload-length': '1000', 'upload-metadata': tusMetadata(m) } });
 		expect(res.status).toBe(409);
 		expect(await res.text()).toMatch(why);
 		expect(res.headers.get('location')).toBeNull();
@@ -438,14 +438,9 @@ const checkBody = {
 
 const incomingPath = (id: string) => path.join(inject('uploadsDir'), 'incoming', id);
 
-const tusMeta = (m: Record<string, string>) =>
-	Object.entries(m)
-		.map(([k, v]) => `${k} ${Buffer.from(v).toString('base64')}`)
-		.join(',');
-
 /** tus 1.0.0 §POST (creation extension): a new upload of `size` bytes; its absolute URL. */
 async function createUpload(size: number, m: Record<string, string>): Promise<string> {
-	const res = await call('/api/uploads/', { method: 'POST', cookie: conservator, headers: { 'tus-resumable': '1.0.0', 'upload-length': String(size), 'upload-metadata': tusMeta(m) } });
+	const res = await call('/api/uploads/', { method: 'POST', cookie: conservator, headers: { 'tus-resumable': '1.0.0', 'upload-length': String(size), 'upload-metadata': tusMetadata(m) } });
 	expect(res.status, await res.clone().text()).toBe(201);
 	return new URL(res.headers.get('location')!, baseUrl()).href;
 }

@@ -1,13 +1,12 @@
 import fs from 'node:fs';
-import http from 'node:http';
 import path from 'node:path';
 import zlib from 'node:zlib';
 import sharp from 'sharp';
 import exifr from 'exifr';
 import { beforeAll, describe, expect, inject, it } from 'vitest';
-import { baseUrl, call, useTestDatabase } from '../helpers/server.ts';
+import { call, rawRequest, useTestDatabase } from '../helpers/server.ts';
 import { cookieFor, makeUser } from '../helpers/users.ts';
-import { makeSpecimen, openCheck, sampleJpeg, settled, sha256, tusUpload } from '../helpers/photos.ts';
+import { makeSpecimen, openCheck, sampleJpeg, settled, sha256, tusMetadata, tusUpload } from '../helpers/photos.ts';
 import { Photo, PhotoUpload } from '../../src/lib/server/models/index.ts';
 
 /**
@@ -219,7 +218,7 @@ describe('who may upload where', () => {
 
 	it('does not let another conservator continue, inspect or cancel my upload', async () => {
 		const other = await cookieFor((await makeUser('conservator', { tag: 'photo-o' })).user.id);
-		const create = await call('/api/uploads/', { method: 'POST', cookie: conservator, headers: { 'tus-resumable': '1.0.0', 'upload-length': '1000', 'upload-metadata': tusMeta(meta('mine.jpg')) } });
+		const create = await call('/api/uploads/', { method: 'POST', cookie: conservator, headers: { 'tus-resumable': '1.0.0', 'upload-length': '1000', 'upload-metadata': tusMetadata(meta('mine.jpg')) } });
 		expect(create.status).toBe(201);
 		const location = create.headers.get('location')!;
 		expect(location).toMatch(/^\/api\/uploads\/[0-9a-f]{32}$/);
@@ -250,23 +249,8 @@ describe('who may upload where', () => {
 	});
 });
 
-const tusMeta = (m: Record<string, string>) =>
-	Object.entries(m)
-		.map(([k, v]) => `${k} ${Buffer.from(v).toString('base64')}`)
-		.join(',');
-
 /** The status of a GET whose path is sent exactly as written. */
-function rawStatus(path: string, cookie: string): Promise<number> {
-	const u = new URL(baseUrl());
-	return new Promise((resolve, reject) => {
-		const req = http.request({ host: u.hostname, port: u.port, path, method: 'GET', headers: { cookie } }, (res) => {
-			res.resume();
-			resolve(res.statusCode ?? 0);
-		});
-		req.on('error', reject);
-		req.end();
-	});
-}
+const rawStatus = async (path: string, cookie: string): Promise<number> => (await rawRequest('GET', path, { cookie })).status;
 
 describe('derivative sets', () => {
 	it('are replaced whole when remade, and the old set is removed', async () => {

@@ -64,6 +64,14 @@ describe('fake SMTP server', () => {
 		expect(new Date(message.receivedAt).getTime()).not.toBeNaN();
 	});
 
+	it('keeps the names of the header lines, so a test sees one that was smuggled in', async () => {
+		// A raw message, as a client that let a line break into a header would send it.
+		const raw = 'From: noreply@meniscus.test\r\nTo: curator@example.org\r\nSubject: Check of X\r\nBcc: intruder@example.org\r\n\r\nHello\r\n';
+		await send({ envelope: { from: 'noreply@meniscus.test', to: ['curator@example.org'] }, raw });
+		const [message] = await readMailbox(mailboxDir);
+		expect(message?.headers).toEqual(['from', 'to', 'subject', 'bcc']);
+	});
+
 	it('refuses a message over the size limit with 552 and stores nothing', async () => {
 		await expect(
 			send({

@@ -29,4 +29,9 @@ describe('specimen record validation', () => {
 		const twice = [{ flag: 'formaldehyde' }, { flag: 'formaldehyde' }];
 		expect(SpecimenSchema.safeParse({ ...base, hazards: twice }).success).toBe(false);
 	});
+	it('refuses a size under 0.1 mm, which the record (kept to 0.1 mm, above 0) would store as 0', () => {
+		for (const v of [0.04, 1e-7, 5e-324]) expect(SpecimenSchema.safeParse({ ...base, innerWidthMm: v }).success, String(v)).toBe(false);
+		expect(SpecimenSchema.safeParse({ ...base, innerWidthMm: 0.1, specimenTopMm: 0.1 }).success).toBe(true);
+		expect(SpecimenSchema.safeParse({ ...base, specimenTopMm: 0.01 }).success).toBe(false);
+	});
 });

@@ -29,7 +29,8 @@ export const LocationLimitsSchema = z
 	.object({
 		flammableLimitL: z
 			.number({ error: 'Flammable limit: enter litres, or leave it empty for no limit.' })
-			.positive('Flammable limit: more than 0 litres, or leave it empty for no limit.')
+			// Kept to 0.1 L and above 0 (DECIMAL(9,1) with a check): less would round to no limit at all.
+			.min(0.1, 'Flammable limit: at least 0.1 litres (limits are kept to 0.1 L), or leave it empty for no limit.')
 			.max(1_000_000, 'Flammable limit: at most 1,000,000 litres.')
 			.nullable(),
 		nearLimitPercent: z

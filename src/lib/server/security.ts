@@ -14,6 +14,15 @@ export const SECURITY_HEADERS: Record<string, string> = {
 	'cache-control': 'no-store',
 };
 
+/**
+ * The headers for a site at this public address: behind https, browsers are also told to come back
+ * only over https for a year (HSTS, RFC 6797; ASVS 3.4.1). Over plain http the header would be
+ * ignored (RFC 6797 §8.1), so a local or test site goes without it.
+ */
+export function securityHeaders(secure: boolean): Record<string, string> {
+	return secure ? { ...SECURITY_HEADERS, 'strict-transport-security': 'max-age=31536000; includeSubDomains' } : SECURITY_HEADERS;
+}
+
 const UNSAFE = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 
 /**

@@ -19,7 +19,8 @@ export const ObjectNumberSchema = z
 	.max(40, 'An object number has at most 40 characters.')
 	.regex(/^[A-Za-z0-9][A-Za-z0-9./:\- ]*$/, 'Use letters, digits and . / : - only.');
 
-const mm = z.number({ error: 'Enter a size in mm.' }).positive('Must be more than 0 mm.').max(5000, 'At most 5000 mm.');
+// Kept to 0.1 mm (the columns are DECIMAL(7,1) and must stay above 0): a smaller size would round to 0 mm.
+const mm = z.number({ error: 'Enter a size in mm.' }).min(0.1, 'At least 0.1 mm: sizes are kept to a tenth of a millimetre.').max(5000, 'At most 5000 mm.');
 
 export const HazardSchema = z.object({
 	flag: z.enum(HAZARD_FLAGS),

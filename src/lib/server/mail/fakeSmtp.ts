@@ -29,6 +29,8 @@ export const MailboxMessageSchema = z.object({
 	subject: z.string(),
 	text: z.string(),
 	html: z.string().nullable(),
+	/** The names of the message's header lines, lower-cased, in order: a test sees one that should not be there. */
+	headers: z.array(z.string()).default([]),
 });
 
 /** One message as stored in the mailbox directory. */
@@ -92,6 +94,7 @@ async function receive(stream: SMTPServerDataStream, session: SMTPServerSession,
 		subject: mail.subject ?? '',
 		text: mail.text ?? '',
 		html: typeof mail.html === 'string' ? mail.html : null,
+		headers: mail.headerLines.map((h) => h.key),
 	};
 	// Temp file in the same directory so the rename is atomic: readers never see half a file.
 	// mkdir again in case someone deleted the directory while the server runs

@@ -7,6 +7,7 @@ import { dirs, ensureDirs, SAFE_ID } from './storage.ts';
 import { assertMayContinue, createUploadRecord, finishUpload, uploadOf, UploadRefused } from './uploads.ts';
 import { removeIncoming } from './incoming.ts';
 import { enqueueIngest } from './queue.ts';
+import { tusPrecondition } from './tusPreconditions.ts';
 
 /**
  * The tus 1.0 server behind /api/uploads (the one catch-all endpoint). The endpoint has already
@@ -85,6 +86,8 @@ function tusServer(): Server {
 }
 
 export async function handleTus(request: Request, user: SignedInUser): Promise<Response> {
+	const refused = tusPrecondition(request, UPLOADS_PATH);
+	if (refused) return refused;
 	who.set(request, user);
 	return tusServer().handleWeb(request);
 }

@@ -60,10 +60,18 @@ export async function createUploadRecord(user: SignedInUser, uploadId: string, r
 	});
 }
 
-/** Only the person who started an upload (or an administrator) may continue, inspect or cancel it. */
+/**
+ * Only the person who started an upload (or an administrator) may continue, inspect or cancel it.
+ * Someone else's upload gets the answer a missing one gets, so its address tells them nothing, and
+ * the attempt is logged (ASVS 16.3.2): upload addresses are not guessed by accident.
+ */
 export async function uploadOf(user: SignedInUser, uploadId: string): Promise<PhotoUpload> {
 	const u = await PhotoUpload.findByPk(uploadId);
-	if (!u || (u.uploaderId !== user.id && user.role !== 'admin')) throw new UploadRefused(404, 'No such upload.');
+	if (!u) throw new UploadRefused(404, 'No such upload.');
+	if (u.uploaderId !== user.id && user.role !== 'admin') {
+		await audit({ action: 'access.refused', entityType: 'photo_upload', entityId: uploadId, actorId: user.id, after: { reason: 'not-the-uploader' } });
+		throw new UploadRefused(404, 'No such upload.');
+	}
 	return u;
 }
 
