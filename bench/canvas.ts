@@ -9,7 +9,7 @@ import path from 'node:path';
 import { chromium, type BrowserContext } from 'playwright-core';
 import { DEFAULT_TERMS, PARTS, type Part } from '../src/lib/check/vocabulary.ts';
 import { MARK_SCHEMA_VERSION, MarkLayerSchema, type Mark, type MarkLayer, type Point } from '../src/lib/marks/schema.ts';
-import { emitPart, median, ratio, table } from './lib/report.ts';
+import { emitPart, median, ratio, table, emitHeadline } from './lib/report.ts';
 import { signIn, tusUpload } from './lib/appClient.ts';
 import { createSpecimen, startAppStack, type AppStack } from './lib/appStack.ts';
 import { demoPassword } from '../db/seeders/demoPassword.mjs';
@@ -251,6 +251,7 @@ try {
 	const fpsEmpty = median(fps.empty);
 	const fpsFull = median(fps.full);
 	const fpsRatio = fpsFull / fpsEmpty;
+	emitHeadline({ label: 'mark canvas: frame rate with 1,000 marks ÷ none', ratio: fpsRatio, target: { value: 0.8, better: 'higher' } });
 	const saveEmpty = median(saves.empty);
 	const saveFull = median(saves.full);
 	const kinds = full.marks.reduce<Record<string, number>>((acc, m) => ((acc[m.kind] = (acc[m.kind] ?? 0) + 1), acc), {});

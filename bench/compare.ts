@@ -10,7 +10,7 @@ import { pairsFromControlMarks } from '../src/lib/compare/pairs.ts';
 import { fitHomography, type Matrix3 } from '../src/lib/compare/registration.ts';
 import { isDamage, type MarkLayer } from '../src/lib/marks/schema.ts';
 import { syntheticPair } from '../tests/unit/compare/synthetic.ts';
-import { emitPart, median, ms, ratio, table } from './lib/report.ts';
+import { emitPart, median, ms, ratio, table, emitHeadline } from './lib/report.ts';
 
 const REPEATS = Math.max(3, Number(process.env.BENCH_COMPARE_REPEATS ?? 15));
 const SIZES = [250, 500, 1000] as const;
@@ -63,6 +63,7 @@ const damageCount = (layer: MarkLayer) => layer.marks.filter(isDamage).length;
 
 const at = (n: number, which: 'runs' | 'cpu' = 'runs') => median(cases.find((c) => c.n === n)![which]);
 const load = os.loadavg().map((l) => l.toFixed(2)).join(', ');
+emitHeadline({ label: 'mark comparison: time at 1,000 marks ÷ 250 (n² would be 16×)', ratio: at(1000) / at(250) });
 emitPart(
 	[
 		'## Mark layer comparison: 250, 500 and 1,000 marks a side',

@@ -15,7 +15,7 @@ import sharp from 'sharp';
 import { DISPLAY_LONG_EDGE, THUMBNAIL_LONG_EDGE, TILE_SIZE } from '../src/lib/photos/limits.ts';
 import { testImages, SIZES, type SizeName, type TestImage } from './lib/testImages.ts';
 import { ensureGnuTime, ensureImageMagick, measure, type Measured } from './lib/tools.ts';
-import { emitPart, mb, median, ms, ratio, seconds, table } from './lib/report.ts';
+import { emitPart, mb, median, ms, ratio, seconds, table, emitHeadline } from './lib/report.ts';
 import type { RunResult } from './photoIngestRun.ts';
 
 const root = path.resolve(import.meta.dirname, '..');
@@ -278,6 +278,7 @@ try {
 		);
 		for (const t of THREADS) {
 			const r = mTotal(t) / bWall(t);
+			emitHeadline({ label: `photo ingest, ${image.name}, ${t} thread${t > 1 ? 's' : ''}: ÷ ImageMagick`, ratio: r, target: { value: 0.8, better: 'lower' } });
 			summary.push([image.name, `${t}`, seconds(mTotal(t)), seconds(bWall(t)), ratio(mTotal(t), bWall(t)), Number.isFinite(r) ? `${r <= 0.8 ? 'met' : '**missed**'} (${r.toFixed(3)}×)` : 'n/a', `${mb(mRss(t))} / ${mb(bRss(t))}`]);
 		}
 	}

@@ -12,7 +12,7 @@ import { migrateUp } from '../db/migrate.ts';
 import { seedDemo } from '../db/seeders/demo.ts';
 import { insertGenerated, insertGeneratedChecks } from '../db/seeders/generated.ts';
 import { RegisterQuerySchema } from '../src/lib/specimen/query.ts';
-import { emitPart, table } from './lib/report.ts';
+import { emitPart, table, emitHeadline } from './lib/report.ts';
 
 const N = Number(process.env.BENCH_SPECIMENS ?? 10_000);
 const RUNS = Number(process.env.BENCH_RUNS ?? 40);
@@ -81,6 +81,7 @@ try {
 	for (const [name, r] of results) {
 		console.log(`${name.padEnd(40)} ${r.median.toFixed(2).padStart(8)} ${r.p95.toFixed(2).padStart(8)} ${(r.median / base).toFixed(2).padStart(10)}`);
 	}
+	for (const [name, r] of results) if (name === 'first page, by object number' || name === 'overview, whole collection') emitHeadline({ label: `register: ${name} ÷ count(*)`, ratio: r.median / base });
 	emitPart(
 		[
 			'## Register query at collection scale',

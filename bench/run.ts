@@ -7,7 +7,8 @@ import os from 'node:os';
 import path from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { machine, machineMarkdown } from './lib/machine.ts';
-import { table } from './lib/report.ts';
+import { table, type Headline } from './lib/report.ts';
+import { headlineChart } from './lib/chart.ts';
 
 const root = path.resolve(import.meta.dirname, '..');
 const BENCHMARKS = {
@@ -33,6 +34,7 @@ const started = new Date();
 // Other work on the machine shows in every figure; the ratios to same-run baselines absorb most of it.
 const load = os.loadavg().map((l) => l.toFixed(2)).join(', ');
 const done: { name: Name; seconds: number; status: number | null; part: string }[] = [];
+const headlines: Headline[] = [];
 try {
 	for (const name of selected) {
 		console.log(`\n=== ${name}: ${BENCHMARKS[name].what}`);
@@ -45,6 +47,8 @@ try {
 		});
 		const seconds = (performance.now() - t) / 1000;
 		const text = fs.existsSync(part) ? fs.readFileSync(part, 'utf8').trim() : '';
+		const lines = `${part}.headlines.jsonl`;
+		if (fs.existsSync(lines)) headlines.push(...fs.readFileSync(lines, 'utf8').trim().split('\n').filter(Boolean).map((l) => JSON.parse(l) as Headline));
 		done.push({ name, seconds, status: r.status, part: text || `## ${name}\n\nFailed (exit status ${r.status}) before reporting; see the console output.` });
 		console.log(`=== ${name}: ${r.status === 0 ? 'done' : `FAILED (exit status ${r.status})`} in ${seconds.toFixed(0)} s`);
 	}
@@ -62,6 +66,7 @@ const report = [
 	'',
 	machineMarkdown(machine(), [['Load average at start (1, 5, 15 min)', load]]),
 	'',
+	...(headlines.length ? ['![Each headline figure against its same-run baseline, log scale, with the targets](REPORT.svg)', '', `The chart repeats ${headlines.length} headline figures from the sections below: each is a ratio to a baseline measured in the same run (bars left of 1× are below the baseline), with the issue's target dashed where there is one.`, ''] : []),
 	table(
 		['benchmark', 'status', 'took (s)'],
 		done.map((d) => [d.name, d.status === 0 ? 'ok' : `**failed** (${d.status})`, d.seconds.toFixed(0)]),
@@ -70,5 +75,7 @@ const report = [
 	...done.map((d) => `${d.part}\n`),
 ].join('\n');
 fs.writeFileSync(path.join(root, 'bench', 'REPORT.md'), report);
+if (headlines.length) fs.writeFileSync(path.join(root, 'bench', 'REPORT.svg'), headlineChart(headlines));
+else fs.rmSync(path.join(root, 'bench', 'REPORT.svg'), { force: true });
 console.log(`\nWrote bench/REPORT.md (${done.map((d) => `${d.name} ${d.seconds.toFixed(0)} s`).join(', ')}).`);
 process.exit(done.every((d) => d.status === 0) ? 0 : 1);

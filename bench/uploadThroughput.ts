@@ -15,7 +15,7 @@ import { pipeline } from 'node:stream/promises';
 import { spawnSync } from 'node:child_process';
 import { startService, stopService, type Service } from '../scripts/lib/proc.mjs';
 import { signIn, tusUpload } from './lib/appClient.ts';
-import { emitPart, median, ratio, table } from './lib/report.ts';
+import { emitPart, median, ratio, table, emitHeadline } from './lib/report.ts';
 import { createSpecimen, startAppStack, type AppStack } from './lib/appStack.ts';
 import { UPLOAD_CHUNK_BYTES } from '../src/lib/photos/uploadPolicy.ts';
 
@@ -157,6 +157,7 @@ try {
 		const mid = median(v);
 		// The verdict shows the unrounded ratio, so that 0.696× is not read as 0.70× and met.
 		const target = c === cases[0] ? '' : `${mid / base >= 0.7 ? 'met' : '**missed**'} (${(mid / base).toFixed(3)}×)`;
+		if (c !== cases[0]) emitHeadline({ label: `upload: ${c.name} ÷ plain PUT`, ratio: mid / base, target: { value: 0.7, better: 'higher' } });
 		return [c.name, mid.toFixed(0), v.map((x) => x.toFixed(0)).join(', '), ratio(mid, base), target];
 	});
 

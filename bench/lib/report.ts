@@ -32,3 +32,17 @@ export function emitPart(markdown: string, { print = true }: { print?: boolean }
 	if (part) fs.appendFileSync(part, `${markdown.trim()}\n\n`);
 	if (print) console.log(`\n${markdown.trim()}\n`);
 }
+
+/** One headline figure for the report's chart: a ratio to its same-run baseline, and its target if any. */
+export interface Headline {
+	label: string;
+	ratio: number;
+	/** The issue's target ratio, and which side of it is good. */
+	target?: { value: number; better: 'lower' | 'higher' };
+}
+
+/** Hands a headline ratio to run.ts (a JSON line beside the Markdown part), which charts them all. */
+export function emitHeadline(h: Headline): void {
+	const part = process.env.BENCH_REPORT_PART;
+	if (part && Number.isFinite(h.ratio)) fs.appendFileSync(`${part}.headlines.jsonl`, `${JSON.stringify(h)}\n`);
+}
