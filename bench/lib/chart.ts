@@ -8,8 +8,9 @@ import type { Headline } from './report.ts';
 const esc = (s: string) => s.replace(/[&<>"]/g, (c) => `&#${c.charCodeAt(0)};`);
 
 export function headlineChart(rows: readonly Headline[]): string {
-	const width = 900;
-	const left = 390;
+	// Room for the longest label (about 6.5 px a character at 12 px), then the bars.
+	const left = 20 + Math.ceil(Math.max(...rows.map((r) => r.label.length)) * 6.5);
+	const width = left + 520;
 	const right = 120;
 	const rowH = 26;
 	const top = 40;
