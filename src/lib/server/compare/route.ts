@@ -1,4 +1,4 @@
-import { json, problem } from '../http.ts';
+import { answerOrRefuse } from '../refusals.ts';
 import { CompareError } from './error.ts';
 import type { CompareActor } from './service.ts';
 
@@ -8,11 +8,4 @@ export function actorOf(locals: App.Locals, clientAddress: string): CompareActor
 }
 
 /** Runs a comparison operation and maps its refusals to HTTP answers (a 409 carries `current`). */
-export async function answer(run: () => Promise<unknown>, status = 200): Promise<Response> {
-	try {
-		return json(await run(), status);
-	} catch (err) {
-		if (!(err instanceof CompareError)) throw err;
-		return err.current ? json({ error: err.message, fields: [], current: err.current }, err.status) : problem(err.status, err.message);
-	}
-}
+export const answer = (run: () => Promise<unknown>, status = 200) => answerOrRefuse(run, status, [CompareError]);
