@@ -1,9 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { call, sessionCookie, signIn, useTestDatabase } from '../helpers/server.ts';
-import { cookieFor, makeUser } from '../helpers/users.ts';
+import { cookieFor, makeUser, signedInUser } from '../helpers/users.ts';
+import { deviceCookieOf, signInFrom } from '../helpers/signInFrom.ts';
 import { db } from '../../src/lib/server/db.ts';
-import { LoginThrottle, UserSession } from '../../src/lib/server/models/index.ts';
+import { LoginThrottle, SignInDevice, UserSession } from '../../src/lib/server/models/index.ts';
 import { attemptSignIn } from '../../src/lib/server/auth/signin.ts';
+import { issueToken } from '../../src/lib/server/auth/tokens.ts';
 
 /** Sign-in through the real /login form of the built server, against the real database. */
 const errorText = async (res: Response) => (await res.text()).match(/role="alert"[^>]*>([^<]*)</)?.[1] ?? '';
@@ -23,7 +25,7 @@ describe('signing in', () => {
 		const res = await call('/login', { form: { email: user.email, password, next: '/admin/users' } });
 		expect(res.status).toBe(303);
 		expect(res.headers.get('location')).toBe('/admin/users');
-		const set = res.headers.getSetCookie().join('\n');
+		const set = res.headers.getSetCookie().filter((c) => c.startsWith('meniscus_session=')).join('\n');
 		expect(set).toMatch(/HttpOnly/i);
 		expect(set).toMatch(/SameSite=Lax/i);
 		expect(set).toMatch(/Path=\//i);
@@ -79,6 +81,15 @@ describe('signing in', () => {
 		await LoginThrottle.update({ blockedUntil: new Date(Date.now() - 1000) }, { where: { key: `account:${user.email}` } });
 		expect((await call('/login', { form: { email: user.email, password } })).status).toBe(303);
 		expect(await LoginThrottle.findByPk(`account:${user.email}`)).toBeNull();
+	});
+
+	it('lets exactly five of twenty simultaneous guesses reach a password check', async () => {
+		const { user } = await makeUser('reviewer');
+		const ip = '203.0.113.45';
+		const results = await Promise.all(Array.from({ length: 20 }, (_, i) => attemptSignIn(user.email, `parallel guess ${i}`, ip)));
+		expect(results.filter((r) => !r.ok && r.reason === 'invalid')).toHaveLength(5);
+		expect(results.filter((r) => !r.ok && r.reason === 'throttled')).toHaveLength(15);
+		await LoginThrottle.destroy({ where: { key: [`address:${ip}`, `account:${user.email}`] } });
 	});
 
 	it('throttles per address across many accounts, and an unknown address counts the same way', async () => {
@@ -196,5 +207,87 @@ describe('session limits on the real session table', () => {
 		await UserSession.update({ createdAt: new Date(Date.now() - 12 * 3_600_000 - 1000) }, { where: { id } });
 		expect(await checkSession(id)).toEqual({ user: null, reason: 'expired' });
 		expect((await call('/api/me', { cookie: `meniscus_session=${id}` })).status).toBe(401);
+	});
+});
+
+describe('trusted browsers: throttling without a lockout (ASVS 5.0 6.3.1; OWASP, "Slow Down Online Guessing Attacks with Device Cookies")', () => {
+	const guesser = '127.0.0.3';
+	afterAll(async () => {
+		await LoginThrottle.destroy({ where: { key: `address:${guesser}` } });
+	});
+
+	it('remembers the browser with an HttpOnly, SameSite=Strict device cookie, a new one at every sign-in', async () => {
+		const { user, password } = await makeUser('reviewer');
+		const first = await call('/login', { form: { email: user.email, password } });
+		const set = first.headers.getSetCookie().find((c) => c.startsWith('meniscus_device='))!;
+		expect(set).toMatch(/HttpOnly/i);
+		expect(set).toMatch(/SameSite=Strict/i);
+		expect(set).toMatch(/Path=\//);
+		expect(set).toMatch(/Max-Age=15552000/); // 180 days
+		const device = set.split(';')[0]!;
+		// Only the token's hash is stored.
+		const rows = await SignInDevice.findAll({ where: { userId: user.id } });
+		expect(rows).toHaveLength(1);
+		expect(rows[0]!.tokenHash).toMatch(/^[0-9a-f]{64}$/);
+		expect(rows[0]!.tokenHash).not.toContain(device.split('=')[1]!);
+		const second = await signInFrom(user.email, password, { cookie: device });
+		expect(second.status).toBe(303);
+		expect(deviceCookieOf(second)).not.toBe(device);
+		expect(await SignInDevice.count({ where: { userId: user.id } })).toBe(1);
+	});
+
+	it('lets the real user in from their own browser while guesses from elsewhere throttle the account', async () => {
+		const { user, password } = await makeUser('conservator');
+		const own = deviceCookieOf(await signInFrom(user.email, password));
+		for (let i = 0; i < 6; i++) await signInFrom(user.email, `wrong guess number ${i}`, { from: guesser });
+		// A browser that never signed in to this account waits, with the right password too …
+		expect((await signInFrom(user.email, password, { from: guesser })).status).toBe(429);
+		// … and so does one bringing another account's device cookie or a made-up one.
+		const other = await makeUser('curator');
+		const othersDevice = deviceCookieOf(await signInFrom(other.user.email, other.password));
+		expect((await signInFrom(user.email, password, { cookie: othersDevice })).status).toBe(429);
+		expect((await signInFrom(user.email, password, { cookie: `meniscus_device=${'A'.repeat(43)}` })).status).toBe(429);
+		// The owner's browser gets in, even from the guesser's address (a shared office address).
+		const back = await signInFrom(user.email, password, { cookie: own, from: guesser });
+		expect(back.status).toBe(303);
+		expect(back.cookies.meniscus_session).toBeTruthy();
+		// The account's count of guesses stands: untrusted browsers still wait.
+		expect((await signInFrom(user.email, password)).status).toBe(429);
+		await LoginThrottle.destroy({ where: { key: `account:${user.email}` } });
+	});
+
+	it('throttles a stolen device cookie on its own after ten wrong passwords', async () => {
+		const { user, password } = await makeUser('reviewer');
+		const device = deviceCookieOf(await signInFrom(user.email, password));
+		for (let i = 0; i < 10; i++) expect((await signInFrom(user.email, `wrong guess number ${i}`, { cookie: device })).status).toBe(401);
+		expect((await signInFrom(user.email, password, { cookie: device })).status).toBe(429);
+		// The account itself was not charged: a fresh browser still signs in.
+		expect(await LoginThrottle.findByPk(`account:${user.email}`)).toBeNull();
+		expect((await signInFrom(user.email, password)).status).toBe(303);
+	});
+
+	it('forgets every remembered browser when the account is disabled or gets a new password', async () => {
+		const { user, password } = await makeUser('curator');
+		await signInFrom(user.email, password);
+		expect(await SignInDevice.count({ where: { userId: user.id } })).toBe(1);
+		const admin = await signedInUser('admin', 'devices');
+		const res = await call(`/api/users/${user.id}`, { method: 'PATCH', json: { disabled: true }, cookie: admin.cookie });
+		expect(res.status).toBe(200);
+		expect(await SignInDevice.count({ where: { userId: user.id } })).toBe(0);
+
+		// A new password through a mailed link: the old browsers are forgotten and the one that set
+		// it is remembered (it proved it holds the mailbox), so it gets in during a flood of guesses.
+		const other = await makeUser('reviewer');
+		const old = deviceCookieOf(await signInFrom(other.user.email, other.password));
+		const token = await issueToken(other.user.id, 'reset', 60_000);
+		const fresh = 'a brand new passphrase for the jars';
+		const reset = await call(`/reset/${token}`, { form: { password: fresh, confirm: fresh } });
+		expect(reset.status).toBe(200);
+		const resetDevice = reset.headers.getSetCookie().find((c) => c.startsWith('meniscus_device='))!.split(';')[0]!;
+		expect(await SignInDevice.count({ where: { userId: other.user.id } })).toBe(1);
+		for (let i = 0; i < 6; i++) await signInFrom(other.user.email, `wrong guess number ${i}`, { from: guesser });
+		expect((await signInFrom(other.user.email, fresh, { cookie: old })).status).toBe(429);
+		expect((await signInFrom(other.user.email, fresh, { cookie: resetDevice })).status).toBe(303);
+		await LoginThrottle.destroy({ where: { key: `account:${other.user.email}` } });
 	});
 });

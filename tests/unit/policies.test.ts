@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { passwordProblems, PASSWORD_MIN } from '../../src/lib/auth/passwordPolicy.ts';
-import { ACCOUNT_RULE, afterFailure, waitMs, describeWait } from '../../src/lib/auth/throttlePolicy.ts';
+import { ACCOUNT_RULE, ADDRESS_RULE, DEVICE_RULE, afterFailure, afterRefund, throttleKeys, waitMs, describeWait } from '../../src/lib/auth/throttlePolicy.ts';
 
 describe('password policy (OWASP ASVS 5.0 6.2)', () => {
 	it('asks for at least 12 characters, counted as characters, not bytes', () => {
@@ -50,3 +50,33 @@ describe('sign-in throttling (common practice, no published source)', () => {
 		expect(describeWait(14 * 60_000 + 1)).toBe('15 minutes');
 	});
 });
+
+describe('which counters a sign-in attempt is charged to (OWASP, "Slow Down Online Guessing Attacks with Device Cookies")', () => {
+	it('charges a browser without a device cookie to the account and the address', () => {
+		expect(throttleKeys('a@example.org', '192.0.2.9', null)).toEqual([
+			['account:a@example.org', ACCOUNT_RULE],
+			['address:192.0.2.9', ADDRESS_RULE],
+		]);
+	});
+	it('charges a trusted browser to its own counter only, so guesses elsewhere cannot lock it out', () => {
+		expect(throttleKeys('a@example.org', '192.0.2.9', 'ab12')).toEqual([['device:ab12', DEVICE_RULE]]);
+	});
+});
+
+describe('an attempt charged in advance and refunded on success', () => {
+	const now = new Date('2026-03-02T08:00:00Z');
+	it('takes the charge back and lifts a wait that charge alone caused', () => {
+		let st = null;
+		for (let i = 0; i < ADDRESS_RULE.free; i++) st = afterFailure(st, now, ADDRESS_RULE);
+		expect(waitMs(st, now)).toBeGreaterThan(0);
+		const back = afterRefund(st!, ADDRESS_RULE);
+		expect(back.failures).toBe(ADDRESS_RULE.free - 1);
+		expect(waitMs(back, now)).toBe(0);
+	});
+	it('keeps a wait that earlier failures had earned', () => {
+		let st = null;
+		for (let i = 0; i < ADDRESS_RULE.free + 2; i++) st = afterFailure(st, now, ADDRESS_RULE);
+		expect(waitMs(afterRefund(st!, ADDRESS_RULE), now)).toBeGreaterThan(0);
+	});
+});
+

@@ -31,6 +31,36 @@ export const ADDRESS_RULE: ThrottleRule = {
 	maxDelayMs: 15 * 60_000,
 };
 
+/**
+ * Per trusted browser (a valid device cookie for the account being signed in to): such an attempt is
+ * counted on its own token only, not on the account or the address, so failures elsewhere never lock
+ * the real user out (OWASP, "Slow Down Online Guessing Attacks with Device Cookies"). A stolen
+ * cookie still gets only this allowance. Numbers: common practice, no published source.
+ */
+export const DEVICE_RULE: ThrottleRule = {
+	free: 10,
+	windowMs: 15 * 60_000,
+	baseDelayMs: 60_000,
+	maxDelayMs: 60 * 60_000,
+};
+
+/** How long a device cookie stays valid after the sign-in that issued it (common practice). */
+export const DEVICE_DAYS = 180;
+/** Devices remembered per account; older ones are forgotten first. */
+export const DEVICES_PER_USER = 20;
+
+/**
+ * The counters an attempt is checked against and charged to: a trusted browser's own, or else the
+ * account's and the address's (shared by every untrusted attempt on them).
+ */
+export function throttleKeys(email: string, clientAddress: string, trustedDevice: string | null): [string, ThrottleRule][] {
+	if (trustedDevice) return [[`device:${trustedDevice}`, DEVICE_RULE]];
+	return [
+		[`account:${email}`, ACCOUNT_RULE],
+		[`address:${clientAddress}`, ADDRESS_RULE],
+	];
+}
+
 export interface ThrottleState {
 	failures: number;
 	windowStart: Date;
@@ -46,6 +76,15 @@ export function afterFailure(prev: ThrottleState | null, now: Date, rule: Thrott
 	const blockedUntil =
 		over >= 0 ? new Date(now.getTime() + Math.min(rule.maxDelayMs, rule.baseDelayMs * 2 ** over)) : null;
 	return { failures, windowStart, blockedUntil };
+}
+
+/**
+ * The state once an attempt charged in advance turned out to be a success: that charge is taken
+ * back, and a wait it alone caused is lifted.
+ */
+export function afterRefund(state: ThrottleState, rule: ThrottleRule): ThrottleState {
+	const failures = Math.max(0, state.failures - 1);
+	return { ...state, failures, blockedUntil: failures - rule.free >= 0 ? state.blockedUntil : null };
 }
 
 /** Milliseconds still to wait at `now`, 0 when a sign-in attempt may go ahead. */

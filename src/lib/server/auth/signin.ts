@@ -1,16 +1,22 @@
 import { User } from '../models/index.ts';
-import { ACCOUNT_RULE, ADDRESS_RULE, type ThrottleRule } from '../../auth/throttlePolicy.ts';
+import { throttleKeys } from '../../auth/throttlePolicy.ts';
 import { verifyAgainstNothing, verifyPassword } from './password.ts';
-import { clearFailures, currentWait, recordFailure } from './throttle.ts';
+import { reserveAttempt, settleSuccess } from './throttle.ts';
+import { rememberDevice, trustedDevice } from './devices.ts';
 import { audit } from '../audit.ts';
 
 /**
  * One sign-in attempt. Unknown address, wrong password, disabled account and an account without a
  * password all give the same answer after the same work (ASVS 6.3.8), and all count towards the
  * throttle of that address, so an attacker learns nothing about who has an account.
+ *
+ * Throttling without a lockout (ASVS 6.3.1, TESTPLAN L3): an attempt from a browser that signed in to
+ * this account before (its device cookie, devices.ts) is counted on that browser alone; every other
+ * attempt is counted on the account and on the address. A flood of guesses therefore slows the
+ * guesser and new browsers, while the real user's own browser still gets in.
  */
 export type SignInResult =
-	| { ok: true; userId: string }
+	| { ok: true; userId: string; deviceToken: string }
 	| { ok: false; reason: 'invalid' }
 	| { ok: false; reason: 'throttled'; waitMs: number };
 
@@ -19,36 +25,39 @@ export async function attemptSignIn(
 	password: string,
 	clientAddress: string,
 	now = new Date(),
+	deviceToken?: string,
 ): Promise<SignInResult> {
-	const keys: [string, ThrottleRule][] = [
-		[`account:${email}`, ACCOUNT_RULE],
-		[`address:${clientAddress}`, ADDRESS_RULE],
-	];
-	const wait = await currentWait(keys, now);
+	const user = await User.findOne({ where: { email } });
+	const device = await trustedDevice(deviceToken, user?.id ?? null, now);
+	const keys = throttleKeys(email, clientAddress, device);
+	const trusted = device !== null;
+	const wait = await reserveAttempt(keys, now);
 	if (wait > 0) {
-		await audit({ action: 'sign-in.throttled', entityType: 'user', entityId: null, after: { email }, clientAddress });
+		await audit({ action: 'sign-in.throttled', entityType: 'user', entityId: user?.id ?? null, after: { email, trustedDevice: trusted }, clientAddress });
 		return { ok: false, reason: 'throttled', waitMs: wait };
 	}
-	const user = await User.findOne({ where: { email } });
 	const ok =
 		user?.passwordHash && !user.disabled
 			? await verifyPassword(user.passwordHash, password)
 			: await verifyAgainstNothing(password);
 	if (!ok || !user) {
-		await recordFailure(keys, now);
+		// Already counted by reserveAttempt.
 		await audit({
 			action: 'sign-in.failed',
 			entityType: 'user',
 			entityId: user?.id ?? null,
 			actorId: null,
-			after: { email, why: !user ? 'unknown' : user.disabled ? 'disabled' : 'password' },
+			after: { email, why: !user ? 'unknown' : user.disabled ? 'disabled' : 'password', trustedDevice: trusted },
 			clientAddress,
 		});
 		return { ok: false, reason: 'invalid' };
 	}
-	await clearFailures(`account:${email}`);
+	// A trusted browser's success clears its own count only: the account's count of guesses from
+	// elsewhere stands until it runs out. The address gets this attempt's charge back.
+	await settleSuccess(keys, now);
 	user.lastSignInAt = now;
 	await user.save();
-	await audit({ action: 'sign-in', entityType: 'user', entityId: user.id, actorId: user.id, clientAddress });
-	return { ok: true, userId: user.id };
+	const nextDevice = await rememberDevice(user.id, deviceToken, now);
+	await audit({ action: 'sign-in', entityType: 'user', entityId: user.id, actorId: user.id, after: { trustedDevice: trusted }, clientAddress });
+	return { ok: true, userId: user.id, deviceToken: nextDevice };
 }

@@ -12,6 +12,7 @@ import { PhotoComparison } from './PhotoComparison.ts';
 import { PhotoDerivative } from './PhotoDerivative.ts';
 import { PhotoUpload } from './PhotoUpload.ts';
 import { PhotoMarkLayer } from './PhotoMarkLayer.ts';
+import { SignInDevice } from './SignInDevice.ts';
 import { Specimen } from './Specimen.ts';
 import { StorageLocation } from './StorageLocation.ts';
 import { Treatment } from './Treatment.ts';
@@ -20,12 +21,12 @@ import { User } from './User.ts';
 import { UserSession } from './UserSession.ts';
 
 export type { TokenPurpose } from './AuthToken.ts';
-export { AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, MailPreference, OutgoingMail, Photo, PhotoComparison, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, Treatment, TreatmentMaterial, User, UserSession };
+export { AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, MailPreference, OutgoingMail, Photo, PhotoComparison, PhotoDerivative, PhotoMarkLayer, PhotoUpload, SignInDevice, Specimen, StorageLocation, Treatment, TreatmentMaterial, User, UserSession };
 export type { DerivativeKind } from './PhotoDerivative.ts';
 
 /** Binds every model to one connection and declares the associations. */
 export function initModels(sequelize: Sequelize): void {
-	for (const m of [AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, MailPreference, OutgoingMail, Photo, PhotoComparison, PhotoDerivative, PhotoMarkLayer, PhotoUpload, Specimen, StorageLocation, Treatment, TreatmentMaterial, User, UserSession]) {
+	for (const m of [AuditEvent, AuthToken, ConditionCheck, DamageTerm, GradeInterval, LoginThrottle, MailPreference, OutgoingMail, Photo, PhotoComparison, PhotoDerivative, PhotoMarkLayer, PhotoUpload, SignInDevice, Specimen, StorageLocation, Treatment, TreatmentMaterial, User, UserSession]) {
 		m.initModel(sequelize);
 	}
 	Specimen.belongsTo(StorageLocation, { foreignKey: 'storageLocationId', as: 'location' });

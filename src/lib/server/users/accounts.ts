@@ -6,6 +6,7 @@ import { audit } from '../audit.ts';
 import { consumeToken, issueToken } from '../auth/tokens.ts';
 import { hashPassword } from '../auth/password.ts';
 import { endAllSessions } from '../auth/lucia.ts';
+import { forgetDevices } from '../auth/devices.ts';
 import { enqueueMail } from '../mail/outbox.ts';
 import { invitationMail, resetMail } from '../mail/templates.ts';
 import { passwordProblems, type PasswordProblem } from '../../auth/passwordPolicy.ts';
@@ -86,8 +87,11 @@ export async function updateUser(
 		return { view: after, endSessions: patch.disabled === true };
 	});
 	// Role changes apply on the next request anyway (the role is read per request); a disabled
-	// account also loses its sessions at once.
-	if (result.endSessions) await endAllSessions(userId);
+	// account also loses its sessions and remembered browsers at once.
+	if (result.endSessions) {
+		await endAllSessions(userId);
+		await forgetDevices(userId);
+	}
 	return result.view;
 }
 
@@ -132,8 +136,11 @@ export async function setPasswordWithToken(
 		if (err instanceof PasswordRefused) return { ok: false as const, problems: err.problems };
 		throw err;
 	});
-	// Whoever held the old password is signed out everywhere.
-	if (result.ok) await endAllSessions(result.userId);
+	// Whoever held the old password is signed out everywhere, and no browser stays trusted.
+	if (result.ok) {
+		await endAllSessions(result.userId);
+		await forgetDevices(result.userId);
+	}
 	return result;
 }
 
