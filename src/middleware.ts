@@ -62,7 +62,22 @@ const access = defineMiddleware(async (ctx, next) => {
 	ctx.locals.sessionId = check.user ? check.sessionId : null;
 	if (sessionId && !check.user) setAuthCookie(ctx.cookies, blankCookie());
 	const decision = decide(ctx.routePattern, ctx.request.method, check.user);
-	if (decision.kind === 'allow') return next();
+	if (decision.kind === 'allow') {
+		const res = await next();
+		// The route admitted the role but the record's own rules refused (another's draft, an approved
+		// check, a reviewer editing marks): an authorisation failure, logged like one (ASVS 16.3.2).
+		if (res.status === 403 && check.user) {
+			await audit({
+				action: 'access.refused',
+				entityType: 'route',
+				entityId: ctx.routePattern,
+				actorId: check.user.id,
+				after: { method: ctx.request.method, reason: 'record-rule', path: ctx.url.pathname.slice(0, 200) },
+				clientAddress: ctx.clientAddress,
+			}).catch(() => {});
+		}
+		return res;
+	}
 	const api = isApi(ctx.url.pathname);
 	if (decision.kind === 'sign-in') {
 		if (api) return Response.json({ error: 'Sign in first.' }, { status: 401 });

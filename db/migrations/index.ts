@@ -8,7 +8,7 @@ import * as correctionsIndex from './20261205000200-check-corrections-index.ts';
 import * as comparisons from './20261206000000-comparisons.ts';
 import * as mailPreferences from './20261207000000-mail-preferences.ts';
 import * as treatments from './20261208000000-treatments.ts';
-import * as signInDevices from './20261209000000-sign-in-devices.ts';
+import * as securityLog from './20261209000000-security-log.ts';
 
 /**
  * Every migration, in order. Listed by static import rather than found by a file glob, so that
@@ -26,5 +26,5 @@ export const MIGRATIONS = [
 	{ name: '20261206000000-comparisons.ts', ...comparisons },
 	{ name: '20261207000000-mail-preferences.ts', ...mailPreferences },
 	{ name: '20261208000000-treatments.ts', ...treatments },
-	{ name: '20261209000000-sign-in-devices.ts', ...signInDevices },
+	{ name: '20261209000000-security-log.ts', ...securityLog },
 ];

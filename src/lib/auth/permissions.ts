@@ -120,8 +120,10 @@ export const ROUTE_RULES: Readonly<Record<string, RouteRule>> = {
 	// Administration.
 	'/admin/users': { GET: ADMIN },
 	'/admin/mailbox': { GET: ADMIN },
+	'/admin/security': { GET: ADMIN },
 	'/admin/lists': { GET: ADMIN },
 	'/api/users': { GET: ADMIN, POST: ADMIN },
+	'/api/security-events': { GET: ADMIN },
 	'/api/users/[id]': { PATCH: ADMIN },
 	'/api/users/[id]/invitation': { POST: ADMIN },
 	'/api/dev/mailbox': { GET: ADMIN },

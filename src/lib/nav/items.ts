@@ -15,6 +15,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
 	{ href: '/fluid', label: 'Fluid tools', roles: 'all' },
 	{ href: '/admin/users', label: 'Users', roles: ['admin'] },
 	{ href: '/admin/lists', label: 'Lists', roles: ['admin'] },
+	{ href: '/admin/security', label: 'Security log', roles: ['admin'] },
 	{ href: '/admin/mailbox', label: 'Mailbox', roles: ['admin'] },
 ];
 
