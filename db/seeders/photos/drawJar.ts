@@ -1,4 +1,4 @@
-import sharp from 'sharp';
+import sharp, { type Exif } from 'sharp';
 
 /**
  * Invented demo photographs of fluid-preserved specimens in glass jars, drawn as SVG and rendered
@@ -1077,7 +1077,7 @@ function grainTile(seed: number): { data: Buffer; size: number } {
  * An invented camera and lens: the seeder must never imply a real manufacturer. Orientation is
  * not here: withExif cannot set it (libvips writes the image's own orientation, 1, over it).
  */
-function exifFor(p: JarPhotoParams, rng: () => number): sharp.Exif {
+function exifFor(p: JarPhotoParams, rng: () => number): Exif {
 	const exposure = ['1/30', '1/60', '1/125'][Math.floor(rng() * 3)] ?? '1/60';
 	const fNumber = ['8', '11'][Math.floor(rng() * 2)] ?? '8';
 	const iso = ['100', '200'][Math.floor(rng() * 2)] ?? '100';

@@ -5,7 +5,7 @@ import { z } from 'zod';
  * server writes with `sharp(input).tile({ layout: 'iiif3', size: 512, id })`. Pure TypeScript: it runs
  * in the browser viewer and in server-side tests alike.
  *
- * What sharp 0.34.5 (libvips 8.17.3) writes, found by generating pyramids (5000×3300, 1234×777,
+ * What sharp writes (found with 0.34.5 and libvips 8.17.3, unchanged in 0.35.5 and libvips 8.18.7), by generating pyramids (5000×3300, 1234×777,
  * 1025×513, 1024×1024, 300×3000, 512×512, 300×200, 1×1) and reading the directories; the unit tests
  * check every path below against real output, so a sharp upgrade that changes it fails them:
  *

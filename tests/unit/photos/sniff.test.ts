@@ -1,5 +1,5 @@
 import fc from 'fast-check';
-import sharp from 'sharp';
+import sharp, { type Sharp } from 'sharp';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { ACCEPTED_EXTENSIONS, ACCEPTED_MIME, checkEnd, type RasterKind, sniffHead } from '../../../src/lib/photos/sniff.ts';
 
@@ -30,7 +30,7 @@ const picture = () => {
 
 const f: Record<string, Uint8Array> = {};
 beforeAll(async () => {
-	const buf = async (s: sharp.Sharp) => new Uint8Array(await s.toBuffer());
+	const buf = async (s: Sharp) => new Uint8Array(await s.toBuffer());
 	f.jpeg = await buf(picture().jpeg());
 	f.png = await buf(picture().png());
 	f.tiff = await buf(picture().tiff());

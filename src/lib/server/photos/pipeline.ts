@@ -1,6 +1,6 @@
 import fsp from 'node:fs/promises';
 import path from 'node:path';
-import sharp from 'sharp';
+import sharp, { type Metadata } from 'sharp';
 import exifr from 'exifr';
 import { checkEnd, sniffHead, type RasterKind } from '../../photos/sniff.ts';
 import { DISPLAY_LONG_EDGE, MAX_PIXELS, THUMBNAIL_LONG_EDGE, TILE_SIZE } from '../../photos/limits.ts';
@@ -46,14 +46,15 @@ export async function inspect(file: string): Promise<Inspection> {
 	const tail = await readSlice(file, Math.max(0, size - 4096), Math.min(size, 4096));
 	const end = checkEnd(sniff.kind, head, tail, size);
 	if (!end.ok) return refuse(end.code, end.reason);
-	let meta: sharp.Metadata;
+	let meta: Metadata;
 	try {
 		// limitInputPixels: false here so that the size can be reported; the check follows at once.
 		meta = await sharp(file, { ...inputOptions, limitInputPixels: false }).metadata();
 	} catch (err) {
 		return refuse('unreadable', `The image header cannot be read (${shortError(err)}); the file is damaged or not what it claims to be.`);
 	}
-	const fmt = meta.format === 'jpg' ? 'jpeg' : meta.format;
+	// Older sharp reported some JPEGs as 'jpg'; kept so a downgrade cannot turn every JPEG into a mismatch.
+	const fmt = String(meta.format) === 'jpg' ? 'jpeg' : meta.format;
 	if (fmt !== sniff.kind) return refuse('mismatch', `The bytes start like ${sniff.kind.toUpperCase()} but decode as ${String(meta.format).toUpperCase()}; the file is not accepted.`);
 	const width = meta.width ?? 0;
 	const height = meta.height ?? 0;
