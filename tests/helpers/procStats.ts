@@ -1,9 +1,10 @@
 import fs from 'node:fs';
 
 /**
- * Memory of a process and everything it started, read from Linux's /proc/<pid>/status (proc(5)):
- * VmRSS is the resident set now, VmHWM its peak since the process began. A service started through
- * a wrapper (tsx runs the script in a child node) is measured as the whole tree.
+ * Memory and CPU of a process and everything it started, read from Linux's /proc (proc(5)):
+ * /proc/<pid>/status VmRSS is the resident set now, VmHWM its peak since the process began;
+ * /proc/<pid>/stat utime and stime its CPU time. A service started through a wrapper (tsx runs
+ * the script in a child node) is measured as the whole tree.
  */
 export interface TreeMemory {
 	pids: number[];
@@ -58,3 +59,24 @@ export function treeMemory(pids: readonly number[]): TreeMemory {
 }
 
 export const mib = (bytes: number) => `${(bytes / 1024 ** 2).toFixed(0)} MiB`;
+
+/** CPU seconds (user + system) used so far by the processes, all their threads included. */
+export function cpuSeconds(pids: readonly number[]): number {
+	let ticks = 0;
+	for (const pid of pids) {
+		try {
+			// Fields after the command name (which may hold spaces) in ")": utime is the 14th, stime the 15th.
+			const rest = fs.readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+			ticks += Number(rest[11]) + Number(rest[12]);
+		} catch {
+			// gone
+		}
+	}
+	// USER_HZ is 100 on Linux (sysconf(_SC_CLK_TCK); proc(5)).
+	return ticks / 100;
+}
+
+/** The nice value of every thread of a process (/proc/<pid>/task/<tid>/stat, field 19). */
+export function threadNice(pid: number): number[] {
+	return fs.readdirSync(`/proc/${pid}/task`).map((tid) => Number(fs.readFileSync(`/proc/${pid}/task/${tid}/stat`, 'utf8').split(') ')[1]!.split(' ')[16]));
+}
