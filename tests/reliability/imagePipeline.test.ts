@@ -55,7 +55,10 @@ const imageDir = fs.mkdtempSync(path.join(os.tmpdir(), 'meniscus-l2-images-'));
 
 interface Sample {
 	at: number;
+	/** Ingest jobs pg-boss has marked active (fetched by a worker, completion not yet written). */
 	active: number;
+	/** Of those, the ones whose upload is not yet settled: the work a worker really has in hand. */
+	inHand: number;
 	waiting: number;
 	processing: number;
 	/** Uploads recorded since the run began. */
@@ -79,12 +82,17 @@ beforeAll(async () => {
 
 afterAll(() => fs.rmSync(imageDir, { recursive: true, force: true }));
 
+type QueueState = Omit<Sample, 'at' | 'workerRss' | 'appRss'>;
+
 /** The ingest queue as the database holds it, and the uploads a worker has claimed. */
-async function queueNow(since = new Date()): Promise<{ active: number; waiting: number; processing: number; recorded: number }> {
-	const [row] = await db().query<{ active: number; waiting: number; processing: number; recorded: number }>(
-		`SELECT (SELECT count(*) FROM photo_uploads WHERE state = 'recorded' AND updated_at >= :since)::int AS recorded, (SELECT count(*) FROM pgboss.job WHERE name = :q AND state = 'active')::int AS active,
+async function queueNow(since = new Date()): Promise<QueueState> {
+	const [row] = await db().query<QueueState>(
+		`SELECT (SELECT count(*) FROM pgboss.job WHERE name = :q AND state = 'active')::int AS active,
+		        (SELECT count(*) FROM pgboss.job j JOIN photo_uploads u ON u.id = j.data->>'uploadId'
+		          WHERE j.name = :q AND j.state = 'active' AND u.state IN ('receiving', 'processing'))::int AS "inHand",
 		        (SELECT count(*) FROM pgboss.job WHERE name = :q AND state IN ('created', 'retry'))::int AS waiting,
-		        (SELECT count(*) FROM photo_uploads WHERE state = 'processing')::int AS processing`,
+		        (SELECT count(*) FROM photo_uploads WHERE state = 'processing')::int AS processing,
+		        (SELECT count(*) FROM photo_uploads WHERE state = 'recorded' AND updated_at >= :since)::int AS recorded`,
 		{ replacements: { q: INGEST_QUEUE, since }, type: QueryTypes.SELECT },
 	);
 	return row!;
@@ -157,7 +165,7 @@ describe('image pipeline (TESTPLAN L2)', () => {
 		const max = (f: (s: Sample) => number) => Math.max(...samples.map(f));
 		const busy = samples.filter((s) => s.at >= duringStart && s.at <= duringEnd);
 		const ratio = during.latency.p99 / Math.max(1, baseline.latency.p99);
-		console.log(`[L2 queue] ${samples.length} samples every ${SAMPLE_MS} ms: active jobs at most ${max((s) => s.active)} (concurrency ${concurrency}), uploads processing at most ${max((s) => s.processing)}, waiting in the database at most ${max((s) => s.waiting)}; ${left.active + left.waiting} still queued when the busy reads ended`);
+		console.log(`[L2 queue] ${samples.length} samples every ${SAMPLE_MS} ms: jobs in hand at most ${max((s) => s.inHand)} (concurrency ${concurrency}), active in pg-boss at most ${max((s) => s.active)}, uploads processing at most ${max((s) => s.processing)}, waiting in the database at most ${max((s) => s.waiting)}; ${left.active + left.waiting} still queued when the busy reads ended`);
 		console.log(`[L2 pipeline] uploads done at ${(uploaded / 1000).toFixed(1)} s, all ${COUNT} settled at ${(settledAt / 1000).toFixed(1)} s (${((settledAt - uploaded) / 1000 / COUNT).toFixed(1)} s a photo after the uploads)`);
 		console.log(`[L2 memory] worker: sampled RSS at most ${mib(max((s) => s.workerRss))}, peak (VmHWM) ${mib(after.worker.hwm)}, after ${mib(after.worker.rss)}; budget ${mib(WORKER_BUDGET)}. App: sampled RSS at most ${mib(max((s) => s.appRss))}, peak ${mib(after.app.hwm)}, after ${mib(after.app.rss)}; budget ${mib(APP_BUDGET)}`);
 		// The worker's memory as the photos went through: growth from one photo to the next is a leak.
@@ -172,12 +180,15 @@ describe('image pipeline (TESTPLAN L2)', () => {
 
 		// (1) Queue bounded (ASVS 5.0 15.2.2): the worker never holds more jobs than its concurrency;
 		// the others wait as rows in the database (pg-boss marks a job active when a worker fetches it).
-		expect(max((s) => s.active)).toBeLessThanOrEqual(concurrency);
+		expect(max((s) => s.inHand)).toBeLessThanOrEqual(concurrency);
+		// pg-boss 10 writes a finished job's completion without waiting for it before fetching the next
+		// (src/manager.js, onFetch), so for a moment a slot can show its next job and its last one.
+		expect(max((s) => s.active)).toBeLessThanOrEqual(2 * concurrency);
 		expect(max((s) => s.processing)).toBeLessThanOrEqual(concurrency);
 		expect(max((s) => s.waiting)).toBeGreaterThan(0);
 		// The busy window was busy: the worker had a job in hand throughout it, and work left after.
 		expect(busy.length).toBeGreaterThan(0);
-		expect(busy.filter((s) => s.active + s.processing === 0).length).toBeLessThanOrEqual(Math.ceil(busy.length * 0.1));
+		expect(busy.filter((s) => s.inHand + s.processing === 0).length).toBeLessThanOrEqual(Math.ceil(busy.length * 0.1));
 		expect(left.active + left.waiting).toBeGreaterThan(0);
 
 		// (2) Memory under budget (sharp docs: one decode per job, libvips cache off; budgets above).
