@@ -13,7 +13,7 @@ import { emitPart, median, ratio, table, emitHeadline } from './lib/report.ts';
 import { signIn, tusUpload } from './lib/appClient.ts';
 import { createSpecimen, startAppStack, type AppStack } from './lib/appStack.ts';
 import { demoPassword } from '../db/seeders/demoPassword.mjs';
-import { testImages } from './lib/testImages.ts';
+import { testImages } from '../tests/helpers/testImages.ts';
 import { CHROMIUM, ensureChromium } from '../scripts/lib/chromium.mjs';
 
 const root = path.resolve(import.meta.dirname, '..');

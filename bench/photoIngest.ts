@@ -13,7 +13,7 @@ import path from 'node:path';
 import { spawnSync } from 'node:child_process';
 import sharp from 'sharp';
 import { DISPLAY_LONG_EDGE, THUMBNAIL_LONG_EDGE, TILE_SIZE } from '../src/lib/photos/limits.ts';
-import { testImages, SIZES, type SizeName, type TestImage } from './lib/testImages.ts';
+import { testImages, SIZES, type SizeName, type TestImage } from '../tests/helpers/testImages.ts';
 import { ensureGnuTime, ensureImageMagick, measure, type Measured } from './lib/tools.ts';
 import { emitPart, mb, median, ms, ratio, seconds, table, emitHeadline } from './lib/report.ts';
 import type { RunResult } from './photoIngestRun.ts';

@@ -12,10 +12,13 @@ import { reconcile } from '../src/lib/server/photos/reconcile.ts';
 import { fixityPass } from '../src/lib/server/photos/fixity.ts';
 import { configureSharp } from '../src/lib/server/photos/pipeline.ts';
 import { ensureDirs } from '../src/lib/server/photos/storage.ts';
+import { lowerPriority } from '../src/lib/server/photos/priority.ts';
 import { DIGEST_CRON, DIGEST_QUEUE, digestDate, runDueDigest } from '../src/lib/server/mail/digest.ts';
 
 const log = (m: string) => console.log(`${new Date().toISOString()} ${m}`);
 const cfg = config();
+// Before any photo work starts threads: they inherit it (TESTPLAN L2, other routes keep their pace).
+lowerPriority(cfg.MENISCUS_WORKER_NICE);
 configureSharp(cfg.MENISCUS_SHARP_THREADS);
 ensureDirs();
 db();
@@ -56,7 +59,7 @@ async function pass() {
 }
 await pass();
 const timer = setInterval(pass, cfg.MENISCUS_RECONCILE_MINUTES * 60_000);
-log(`photo worker ready (${cfg.MENISCUS_PHOTO_JOBS} job(s) at a time, ${cfg.MENISCUS_SHARP_THREADS} thread(s) each)`);
+log(`photo worker ready (${cfg.MENISCUS_PHOTO_JOBS} job(s) at a time, ${cfg.MENISCUS_SHARP_THREADS} thread(s) each, nice ${cfg.MENISCUS_WORKER_NICE})`);
 
 async function stop() {
 	clearInterval(timer);

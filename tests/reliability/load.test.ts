@@ -1,11 +1,10 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import autocannon, { type Result } from 'autocannon';
-import { QueryTypes } from 'sequelize';
+import autocannon from 'autocannon';
 import { baseUrl, call, useTestDatabase } from '../helpers/server.ts';
 import { signedInUser } from '../helpers/users.ts';
 import { specimenRecord } from '../helpers/specimens.ts';
 import { sampleJpeg, settled, tusUpload } from '../helpers/photos.ts';
-import { db } from '../../src/lib/server/db.ts';
+import { latencyLine, readLoad, readPaths as signedInReads } from '../helpers/readLoad.ts';
 
 /**
  * TESTPLAN L1, mixed load (ASVS 5.0 15.2.2; autocannon's percentiles and non-2xx counts): on
@@ -38,32 +37,14 @@ beforeAll(async () => {
 		const { specimen } = await res.json();
 		targets.push({ id: specimen.id, record, version: specimen.version, acked: 0, title: record.title, pending: null });
 	}
-	const photos = await db().query<{ id: string; specimen_id: string }>(
-		`SELECT p.id, p.specimen_id FROM photos p WHERE EXISTS (SELECT 1 FROM photo_derivatives d WHERE d.photo_id = p.id AND d.kind = 'tiles') ORDER BY p.id LIMIT 3`,
-		{ type: QueryTypes.SELECT },
-	);
-	expect(photos.length).toBeGreaterThan(0);
-	readPaths = [
-		'/api/specimens?q=STC&sort=objectNumber',
-		`/api/specimens/${photos[0]!.specimen_id}`,
-		'/api/home',
-		...photos.flatMap((p) => [`/api/photos/${p.id}/tiles/info.json`, `/api/photos/${p.id}/tiles/0,0,512,512/512,512/0/default.jpg`, `/api/photos/${p.id}/marks`]),
-		`/api/photos/${photos[0]!.id}/display`,
-	];
-	for (const p of readPaths) expect((await call(p, { cookie })).status, p).toBe(200);
+	readPaths = await signedInReads(cookie);
 }, 120_000);
-
-function report(name: string, r: Result) {
-	console.log(
-		`[L1 ${name}] ${r.requests.total} requests in ${r.duration.toFixed(0)} s (${r.requests.average.toFixed(0)}/s); latency p50 ${r.latency.p50} ms, p90 ${r.latency.p90} ms, p99 ${r.latency.p99} ms, max ${r.latency.max} ms; errors ${r.errors}, timeouts ${r.timeouts}, non-2xx ${r.non2xx}`,
-	);
-}
 
 describe('mixed load (TESTPLAN L1)', () => {
 	it(`serves ${READERS} readers and ${WRITERS} writers for ${SECONDS} s with no error and every acknowledged save kept`, async () => {
 		const free = [...targets];
 		const base = baseUrl();
-		const readers = autocannon({ url: base, connections: READERS, duration: SECONDS, timeout: 10, headers: { cookie }, requests: readPaths.map((path) => ({ method: 'GET', path })) });
+		const readers = readLoad(cookie, readPaths, { connections: READERS, seconds: SECONDS });
 		const writers = autocannon({
 			url: base,
 			connections: WRITERS,
@@ -109,8 +90,8 @@ describe('mixed load (TESTPLAN L1)', () => {
 			),
 		);
 		const [r, w, up] = await Promise.all([readers, writers, uploads]);
-		report('reads', r);
-		report('writes', w);
+		console.log(latencyLine('L1 reads', r));
+		console.log(latencyLine('L1 writes', w));
 		expect([r.errors, r.timeouts, r.non2xx]).toEqual([0, 0, 0]);
 		expect([w.errors, w.timeouts, w.non2xx]).toEqual([0, 0, 0]);
 		expect(up.map((u) => u.state)).toEqual(Array(UPLOADS).fill('recorded'));

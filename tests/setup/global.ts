@@ -27,6 +27,8 @@ declare module 'vitest' {
 		uploadsDir: string;
 		/** The environment the app and the worker were started with (for tests that start their own). */
 		serverEnv: Record<string, string>;
+		/** Process ids of the app and the photo worker (the worker's is tsx's, its node is a child). */
+		servicePids: { app: number; worker: number };
 	}
 }
 
@@ -95,6 +97,7 @@ export default async function setup(project: TestProject) {
 		project.provide('clusterPort', pgPort);
 		project.provide('uploadsDir', uploadsDir);
 		project.provide('serverEnv', env);
+		project.provide('servicePids', { app: server.pid!, worker: worker.pid! });
 	} catch (err) {
 		await teardown();
 		throw err;

@@ -25,6 +25,8 @@ const EnvSchema = z.object({
 	/** Photos processed at once by one worker process; each uses MENISCUS_SHARP_THREADS threads. */
 	MENISCUS_PHOTO_JOBS: z.coerce.number().int().min(1).max(16).default(1),
 	MENISCUS_SHARP_THREADS: z.coerce.number().int().min(1).max(64).default(1),
+	/** The photo worker's nice value (0 = as the web server, 19 = lowest): it yields to the app. */
+	MENISCUS_WORKER_NICE: z.coerce.number().int().min(0).max(19).default(10),
 	/** Minutes between reconciler passes in the worker (it also runs when the worker starts). */
 	MENISCUS_RECONCILE_MINUTES: z.coerce.number().positive().max(24 * 60).default(10),
 	/** Each master is re-hashed when its last fixity check is older than this. */

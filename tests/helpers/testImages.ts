@@ -3,7 +3,8 @@ import path from 'node:path';
 import sharp from 'sharp';
 
 /**
- * Invented photographs for the photo benchmarks, made here rather than downloaded: a jar-like
+ * Invented photographs for the photo benchmarks and the image-pipeline test, made here rather than
+ * downloaded: a jar-like
  * subject on a graded background with soft blotches and sensor grain, so the JPEG compresses (and
  * decodes) like a camera's file and not like a flat colour or pure noise. Deterministic (seeded),
  * so every run measures the same bytes.
@@ -51,10 +52,8 @@ async function smoothNoise(width: number, height: number, cell: number, channels
 		.toBuffer();
 }
 
-async function render(file: string, width: number, height: number, seed: number): Promise<void> {
-	// Luminance-heavy structure, as in a photograph: big soft shapes, mid texture, then grain.
-	const coarse = await smoothNoise(width, height, Math.round(width / 48), 3, seed);
-	const texture = await smoothNoise(width, height, 6, 1, seed + 1);
+/** The pixels (RGB, 3 bytes each) of one invented photograph. */
+function renderRaw(coarse: Buffer, texture: Buffer, width: number, height: number, seed: number): Buffer {
 	const grain = seededBytes(width * height * 3, seed + 2);
 	const raw = Buffer.alloc(width * height * 3);
 	const cx = width / 2;
@@ -82,6 +81,17 @@ async function render(file: string, width: number, height: number, seed: number)
 			raw[i + 2] = b < 0 ? 0 : b > 255 ? 255 : b;
 		}
 	}
+	return raw;
+}
+
+async function rawOf(width: number, height: number, seed: number): Promise<Buffer> {
+	// Luminance-heavy structure, as in a photograph: big soft shapes, mid texture, then grain.
+	const coarse = await smoothNoise(width, height, Math.round(width / 48), 3, seed);
+	const texture = await smoothNoise(width, height, 6, 1, seed + 1);
+	return renderRaw(coarse, texture, width, height, seed);
+}
+
+async function encode(raw: Buffer, file: string, width: number, height: number): Promise<void> {
 	await sharp(raw, { raw: { width, height, channels: 3 } })
 		.jpeg({ quality: 92 })
 		.withExif({
@@ -89,6 +99,45 @@ async function render(file: string, width: number, height: number, seed: number)
 			IFD2: { DateTimeOriginal: '2026:03:14 10:21:07', OffsetTimeOriginal: '+01:00', ExposureTime: '1/125', FNumber: '8/1' },
 		})
 		.toFile(file);
+}
+
+const seedOf = (width: number, height: number) => width * 65_536 + height;
+
+/**
+ * Paints `n` in binary as a row of 16 squares of 48 px (white for 1, black for 0) in the top left
+ * corner: a small drawn patch that makes each file of a series different pixels and bytes.
+ */
+function stampNumber(raw: Buffer, width: number, n: number): void {
+	const cell = 48;
+	for (let bit = 0; bit < 16; bit++) {
+		const v = (n >> bit) & 1 ? 255 : 0;
+		for (let y = cell; y < 2 * cell; y++) {
+			const row = y * width;
+			for (let x = cell * (bit + 1); x < cell * (bit + 2); x++) raw.fill(v, (row + x) * 3, (row + x) * 3 + 3);
+		}
+	}
+}
+
+/**
+ * `count` different photographs of one size in `dir`: the same invented picture, rendered once,
+ * each numbered with a drawn patch (so every file has its own pixels and SHA-256), then encoded
+ * as the benchmark's JPEG. Made once and reused while the folder exists.
+ */
+export async function numberedImages(dir: string, name: SizeName, count: number): Promise<TestImage[]> {
+	fs.mkdirSync(dir, { recursive: true });
+	const { width, height } = SIZES[name];
+	const file = (i: number) => path.join(dir, `invented-${width}x${height}-${String(i).padStart(3, '0')}.jpg`);
+	let raw: Buffer | undefined;
+	const out: TestImage[] = [];
+	for (let i = 0; i < count; i++) {
+		if (!fs.existsSync(file(i))) {
+			raw ??= await rawOf(width, height, seedOf(width, height));
+			stampNumber(raw, width, i + 1);
+			await encode(raw, file(i), width, height);
+		}
+		out.push({ name: `${name} #${i + 1}`, file: file(i), width, height, bytes: fs.statSync(file(i)).size });
+	}
+	return out;
 }
 
 /** The test images in `dir`, made once and reused while the folder exists. */
@@ -99,7 +148,7 @@ export async function testImages(dir: string, names: readonly SizeName[] = ['24 
 		const { width, height } = SIZES[name];
 		const file = path.join(dir, `invented-${width}x${height}.jpg`);
 		// The seed follows the size, so an image is the same whichever sizes a run selects.
-		if (!fs.existsSync(file)) await render(file, width, height, width * 65_536 + height);
+		if (!fs.existsSync(file)) await encode(await rawOf(width, height, seedOf(width, height)), file, width, height);
 		out.push({ name, file, width, height, bytes: fs.statSync(file).size });
 	}
 	return out;
