@@ -1,14 +1,15 @@
 import crypto from 'node:crypto';
 import fs from 'node:fs';
 import fsp from 'node:fs/promises';
-import http from 'node:http';
 import os from 'node:os';
 import path from 'node:path';
 import type * as tus from 'tus-js-client';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { freePort } from '../../db/cluster.mjs';
-import { startService, stopService, waitForHttp, type Service } from '../../scripts/lib/proc.mjs';
-import { baseUrl, call, useTestDatabase } from '../helpers/server.ts';
+import { stopService, type Service } from '../../scripts/lib/proc.mjs';
+import { startApp } from '../helpers/apps.ts';
+import { createUpload, rawPatch } from '../helpers/tusRaw.ts';
+import { call, useTestDatabase } from '../helpers/server.ts';
 import { cookieFor, makeUser } from '../helpers/users.ts';
 import { makeSpecimen, openCheck, sampleJpeg, settled, sha256, sha256OfFile, tusHead, tusMetadata, tusStart, tusUpload, writeTiff } from '../helpers/photos.ts';
 import { db } from '../../src/lib/server/db.ts';
@@ -21,10 +22,10 @@ import { AuditEvent, Photo, PhotoUpload } from '../../src/lib/server/models/inde
  * arrived but were never recorded, and uploads to checks that can no longer change.
  *
  * Protocol references are to tus 1.0.0 (tus-resumable-upload-protocol, protocol.md) §Core Protocol;
- * the lock behaviour is @tus/server 2.4.5's MemoryLocker (a second request for a locked upload asks
- * the holder to let go; the holder stops reading after lockDrainTimeout, 3 s by default).
+ * the lock behaviour is @tus/server 2.4.5's MemoryLocker, kept across processes by our PgLocker
+ * (a second request for a locked upload asks the holder to let go; the holder stops reading after
+ * lockDrainTimeout, 3 s by default).
  */
-const root = path.resolve(import.meta.dirname, '..', '..');
 const MiB = 1024 * 1024;
 let tmp: string;
 let conservator: string;
@@ -138,14 +139,6 @@ describe('the app server killed with SIGKILL in the middle of a PATCH', () => {
 	// records what it receives; the global server is never touched.
 	let app2: Service | undefined;
 	let url2 = '';
-	const quiet = !process.env.MENISCUS_TEST_SERVER_LOG;
-
-	async function startApp2(port: number): Promise<Service> {
-		const env = { ...inject('serverEnv'), PORT: String(port), MENISCUS_PUBLIC_URL: url2 };
-		const child = startService('app2', process.execPath, ['dist/server/entry.mjs'], { cwd: root, quiet, env });
-		await waitForHttp(`${url2}/login`, { child });
-		return child;
-	}
 
 	afterAll(async () => {
 		await stopService(app2);
@@ -154,7 +147,7 @@ describe('the app server killed with SIGKILL in the middle of a PATCH', () => {
 	it('resumes on the restarted server from the bytes that reached the disk, and the photo matches the file', async () => {
 		const port = await freePort();
 		url2 = `http://127.0.0.1:${port}`;
-		app2 = await startApp2(port);
+		app2 = await startApp('app2', port);
 		const killed = app2;
 		let client: tus.Upload | undefined;
 		let kill = false;
@@ -177,7 +170,7 @@ describe('the app server killed with SIGKILL in the middle of a PATCH', () => {
 		expect(url.startsWith(`${url2}/api/uploads/`)).toBe(true);
 		const id = url.split('/').pop()!;
 
-		app2 = await startApp2(port);
+		app2 = await startApp('app2', port);
 		const head = await tusHead(url, conservator);
 		expect(head.status).toBe(200);
 		expect(head.offset).toBeGreaterThan(0);
@@ -197,12 +190,12 @@ describe('the app server killed with SIGKILL in the middle of a PATCH', () => {
 
 describe('two clients writing the same upload at once', () => {
 	it('lets one PATCH win at an offset, refuses the other with 409, and stores none of the loser’s bytes', async () => {
-		const url = await createUpload(mid.size, meta('two-writers.tif'));
+		const url = await createUpload(conservator, mid.size, meta('two-writers.tif'));
 		const id = url.split('/').pop()!;
 		const head = await fsp.readFile(mid.file).then((b) => b.subarray(0, 4 * MiB));
 
 		// Writer A sends the first 4 MiB of its PATCH and then stalls, holding the upload's lock.
-		const a = rawPatch(url, 0, mid.size);
+		const a = rawPatch(url, 0, mid.size, conservator);
 		a.req.write(head);
 		await expect.poll(() => fs.statSync(incomingPath(id)).size, { timeout: 15_000, interval: 50 }).toBe(4 * MiB);
 
@@ -210,7 +203,7 @@ describe('two clients writing the same upload at once', () => {
 		// A stops after the drain time with what it has, and B then finds the offset moved on.
 		// tus 1.0.0 §PATCH: "If the offsets do not match, the Server MUST respond with the
 		// 409 Conflict status without modifying the upload resource."
-		const b = rawPatch(url, 0, 8 * MiB);
+		const b = rawPatch(url, 0, 8 * MiB, conservator);
 		b.req.end(Buffer.alloc(8 * MiB, 0x5a));
 		const rb = await b.response;
 		expect('status' in rb && [409, 423].includes(rb.status), JSON.stringify(rb)).toBe(true);
@@ -233,7 +226,7 @@ describe('two clients writing the same upload at once', () => {
 	}, 60_000);
 
 	it('two tus clients racing on one upload URL with retries both finish, each byte accepted once, and the photo matches', async () => {
-		const url = await createUpload(mid.size, meta('racing-clients.tif'));
+		const url = await createUpload(conservator, mid.size, meta('racing-clients.tif'));
 		const id = url.split('/').pop()!;
 		const seen = { accepted: 0, statuses: [] as number[] };
 		const client = (delays: number[]) =>
@@ -350,17 +343,17 @@ describe('checks that can no longer change', () => {
 	it('stops taking bytes for an upload begun on a draft once the check is submitted, and takes them again once it is returned', async () => {
 		const check = await gradedDraft();
 		const m = checkMeta(check.id, 'begun-on-draft.tif');
-		const url = await createUpload(mid.size, m);
+		const url = await createUpload(conservator, mid.size, m);
 		const id = url.split('/').pop()!;
 		const half = Math.floor(mid.size / 2);
-		const part = rawPatch(url, 0, half);
+		const part = rawPatch(url, 0, half, conservator);
 		part.req.end((await fsp.readFile(mid.file)).subarray(0, half));
 		expect(await part.response).toMatchObject({ status: 204, offset: String(half) });
 
 		await submit(check);
 		// A PATCH sent straight away is refused before its body is read: a 403, or the connection
 		// closed under the client (tus closes it for a PATCH it stops reading).
-		const early = rawPatch(url, half, mid.size - half);
+		const early = rawPatch(url, half, mid.size - half, conservator);
 		early.req.end((await fsp.readFile(mid.file)).subarray(half));
 		const outcome = await early.response;
 		if ('status' in outcome) expect(outcome.status).toBe(403);
@@ -388,11 +381,11 @@ describe('checks that can no longer change', () => {
 
 	it('refuses, and does not keep, an upload whose last byte arrives after the check was submitted', async () => {
 		const check = await gradedDraft();
-		const url = await createUpload(mid.size, checkMeta(check.id, 'last-byte-late.tif'));
+		const url = await createUpload(conservator, mid.size, checkMeta(check.id, 'last-byte-late.tif'));
 		const id = url.split('/').pop()!;
 		const bytes = await fsp.readFile(mid.file);
 		// One PATCH begun while the check is a draft; it stalls one byte short of the end.
-		const patch = rawPatch(url, 0, mid.size);
+		const patch = rawPatch(url, 0, mid.size, conservator);
 		patch.req.write(bytes.subarray(0, mid.size - 1));
 		await expect.poll(() => fs.statSync(incomingPath(id)).size, { timeout: 15_000, interval: 50 }).toBe(mid.size - 1);
 		await submit(check);
@@ -437,39 +430,6 @@ const checkBody = {
 };
 
 const incomingPath = (id: string) => path.join(inject('uploadsDir'), 'incoming', id);
-
-/** tus 1.0.0 §POST (creation extension): a new upload of `size` bytes; its absolute URL. */
-async function createUpload(size: number, m: Record<string, string>): Promise<string> {
-	const res = await call('/api/uploads/', { method: 'POST', cookie: conservator, headers: { 'tus-resumable': '1.0.0', 'upload-length': String(size), 'upload-metadata': tusMetadata(m) } });
-	expect(res.status, await res.clone().text()).toBe(201);
-	return new URL(res.headers.get('location')!, baseUrl()).href;
-}
-
-type RawOutcome = { status: number; offset: string | undefined } | { error: string };
-
-/**
- * A PATCH whose body the test writes itself (to stall it, or to send other bytes than the file's):
- * tus 1.0.0 §PATCH needs Upload-Offset and Content-Type: application/offset+octet-stream.
- */
-function rawPatch(url: string, offset: number, length: number): { req: http.ClientRequest; response: Promise<RawOutcome> } {
-	const u = new URL(url);
-	const req = http.request({
-		host: u.hostname,
-		port: u.port,
-		path: u.pathname,
-		method: 'PATCH',
-		headers: { cookie: conservator, origin: u.origin, 'tus-resumable': '1.0.0', 'upload-offset': String(offset), 'content-type': 'application/offset+octet-stream', 'content-length': String(length) },
-	});
-	const response = new Promise<RawOutcome>((resolve) => {
-		req.on('response', (res) => {
-			res.resume();
-			resolve({ status: res.statusCode ?? 0, offset: res.headers['upload-offset'] as string | undefined });
-		});
-		// Also after the response: writing to a socket the server closed (EPIPE) is expected here.
-		req.on('error', (err) => resolve({ error: err.message }));
-	});
-	return { req, response };
-}
 
 /**
  * HEAD once the server has finished with the interrupted PATCH: the offset no longer grows (the

@@ -1,12 +1,12 @@
-import path from 'node:path';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import { useTestDatabase } from '../helpers/server.ts';
 import { signedInUser } from '../helpers/users.ts';
 import { expectAcknowledgedKept, saveTargets, startSavers, type SaveTarget } from '../helpers/savers.ts';
 import { db } from '../../src/lib/server/db.ts';
 import { freePort } from '../../db/cluster.mjs';
-import { startService, stopService, waitForHttp } from '../../scripts/lib/proc.mjs';
+import { stopService, type Service } from '../../scripts/lib/proc.mjs';
+import { startApp } from '../helpers/apps.ts';
 
 /**
  * TESTPLAN F1 for saves (the PATCH half is in tests/integration/photoResume.test.ts): an app
@@ -16,25 +16,16 @@ import { startService, stopService, waitForHttp } from '../../scripts/lib/proc.m
  * a save whose answer was lost either committed whole or not at all; the savers carry on once it is
  * back.
  */
-type Service = ReturnType<typeof startService>;
-const root = path.resolve(import.meta.dirname, '..', '..');
 let app: Service | undefined;
 let base = '';
 let cookie = '';
 let targets: SaveTarget[] = [];
 
-async function startApp(port: number): Promise<Service> {
-	const env = { ...inject('serverEnv'), PORT: String(port), MENISCUS_PUBLIC_URL: base };
-	const child = startService('app-kill', process.execPath, ['dist/server/entry.mjs'], { cwd: root, quiet: !process.env.MENISCUS_TEST_SERVER_LOG, env });
-	await waitForHttp(`${base}/login`, { child });
-	return child;
-}
-
 beforeAll(async () => {
 	useTestDatabase();
 	const port = await freePort();
 	base = `http://127.0.0.1:${port}`;
-	app = await startApp(port);
+	app = await startApp('app-kill', port);
 	({ cookie } = await signedInUser('conservator', 'kill'));
 	targets = await saveTargets(cookie, `KL${process.pid}`, 4, base);
 }, 120_000);
@@ -54,7 +45,7 @@ describe('the app killed with SIGKILL mid-save (TESTPLAN F1)', () => {
 			app!.kill('SIGKILL');
 			await app!.exited;
 			await sleep(300);
-			app = await startApp(port);
+			app = await startApp('app-kill', port);
 		}
 		await sleep(1_000);
 		await savers.stop();

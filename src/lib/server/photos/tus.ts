@@ -8,12 +8,15 @@ import { assertMayContinue, createUploadRecord, finishUpload, uploadOf, UploadRe
 import { removeIncoming } from './incoming.ts';
 import { enqueueIngest } from './queue.ts';
 import { tusPrecondition } from './tusPreconditions.ts';
+import { PgLocker } from './pgLocker.ts';
+import { isDatabaseUnavailable, UNAVAILABLE_MESSAGE } from '../dbErrors.ts';
 
 /**
  * The tus 1.0 server behind /api/uploads (the one catch-all endpoint). The endpoint has already
  * signed the user in and checked their role; here every request is tied to the upload's owner,
  * creation validates the metadata and the target record, a finished upload is queued for the
  * worker and cannot be deleted, and ids are only ever lowercase hex (no `../`, no `%2F`).
+ * Upload locks are held in PostgreSQL (pgLocker.ts), so several app processes may serve one site.
  */
 export const UPLOADS_PATH = '/api/uploads';
 
@@ -46,6 +49,9 @@ function tusServer(): Server {
 		path: UPLOADS_PATH,
 		relativeLocation: true,
 		datastore: new FileStore({ directory: dirs.incoming() }),
+		// Not the default MemoryLocker: its locks are per process, and a second app process on the same
+		// uploads folder could write the same upload at once (tus-node-server #408, TESTPLAN F4).
+		locker: new PgLocker({ connectionString: config().DATABASE_URL }),
 		maxSize: MAX_UPLOAD_BYTES,
 		allowedOrigins: [origin],
 		disableTerminationForFinishedUploads: true,
@@ -78,6 +84,9 @@ function tusServer(): Server {
 		},
 		onResponseError: (_req, err) => {
 			if ('status_code' in err && err.status_code < 500) return undefined;
+			// Like every other route (middleware.ts): the database is away, the client may try again;
+			// the upload's bytes so far are on disk and its next HEAD finds them.
+			if (isDatabaseUnavailable(err)) return { status_code: 503, body: `${UNAVAILABLE_MESSAGE}\n` };
 			console.error(`[uploads] ${'message' in err ? err.message : err.body}`);
 			return { status_code: 500, body: 'The upload could not be stored; try again.\n' };
 		},
@@ -89,5 +98,8 @@ export async function handleTus(request: Request, user: SignedInUser): Promise<R
 	const refused = tusPrecondition(request, UPLOADS_PATH);
 	if (refused) return refused;
 	who.set(request, user);
-	return tusServer().handleWeb(request);
+	const response = await tusServer().handleWeb(request);
+	// tus's error hook sets only the status and body; a 503 says when to come back, as the middleware's does.
+	if (response.status === 503) response.headers.set('retry-after', '5');
+	return response;
 }
