@@ -4,7 +4,7 @@ import path from 'node:path';
 import sharp from 'sharp';
 import exifr from 'exifr';
 import { afterAll, describe, expect, it } from 'vitest';
-import { inspect, makeDerivatives, readExif } from '../../../src/lib/server/photos/pipeline.ts';
+import { inspect, isDecodeError, isMachineFault, makeDerivatives, readExif, shortError, UndecodableImage } from '../../../src/lib/server/photos/pipeline.ts';
 import { parseInfo, tilesForView } from '../../../src/lib/photos/iiifTiles.ts';
 
 /**
@@ -152,5 +152,19 @@ describe('inspection before decoding', () => {
 		fs.writeFileSync(file, heic);
 		const seen = await inspect(file);
 		expect(!seen.ok && seen.refusal.code).toBe('heic');
+	});
+});
+
+describe('refusal wording', () => {
+	it('never names a server path, whatever libvips put in its message (ASVS 5.0 16.5.1)', () => {
+		expect(shortError(new Error('Input file has corrupt header: /tmp/meniscus-x/incoming/ab12: bad seek to 1730\nmore'))).toBe('Input file has corrupt header: the file: bad seek to 1730');
+		expect(shortError(new Error('VipsForeignLoad: "/srv/uploads/incoming/ab12" is not a known file format'))).toBe('VipsForeignLoad: the file is not a known file format');
+		expect(shortError(new Error('Unknown error'))).toBe('Unknown error');
+	});
+	it('tells a damaged file from a machine fault', () => {
+		expect(isDecodeError(new UndecodableImage(new Error('Unknown error')))).toBe(true);
+		expect(isDecodeError(Object.assign(new Error('write failed'), { code: 'ENOSPC' }))).toBe(false);
+		expect(isMachineFault(new Error('VipsForeignSaveJpeg: No space left on device'))).toBe(true);
+		expect(isMachineFault(new Error('VipsJpeg: Premature end of input file'))).toBe(false);
 	});
 });

@@ -104,7 +104,12 @@ export async function makeDerivatives(master: string, setDir: string): Promise<D
 			.flatten({ background: '#ffffff' })
 			.toColourspace('srgb')
 			.raw({ depth: 'uchar' })
-			.toBuffer({ resolveWithObject: true });
+			.toBuffer({ resolveWithObject: true })
+			.catch((err: unknown) => {
+				// Whatever stops the decoder is the file's doing (libvips' words vary, down to "Unknown
+				// error" for a damaged PNG header: TESTPLAN B3 found it), unless the machine ran short.
+				throw isMachineFault(err) ? err : new UndecodableImage(err);
+			});
 		const { width, height, channels } = decoded.info;
 		const from = () => sharp(decoded.data, { raw: { width, height, channels }, limitInputPixels: MAX_PIXELS }).timeout({ seconds: SHARP_TIMEOUT_S });
 		const resized = async (kind: 'thumbnail' | 'display', edge: number, quality: number): Promise<DerivativeFile> => {
@@ -145,14 +150,37 @@ export async function readRgb(file: string): Promise<{ data: Buffer; width: numb
 	return { data, width: info.width, height: info.height, channels: 3 };
 }
 
+/** The decoder could not read the photo: the file's fault, refused rather than retried. */
+export class UndecodableImage extends Error {
+	constructor(readonly cause: unknown) {
+		super(String((cause as Error)?.message ?? cause));
+	}
+}
+
+const MACHINE_CODES = new Set(['ENOSPC', 'EDQUOT', 'ENOMEM', 'EMFILE', 'ENFILE', 'EIO', 'EACCES', 'EPERM', 'EROFS', 'EBUSY']);
+const MACHINE_WORDS = /no space left on device|disk quota exceeded|out of memory|cannot allocate memory|too many open files|input\/output error|permission denied|read-only file system/i;
+
+/** The machine had a problem (disk, memory, files, permissions): retry later, never blame the photo. */
+export function isMachineFault(err: unknown): boolean {
+	const code = (err as NodeJS.ErrnoException | null)?.code;
+	return (typeof code === 'string' && MACHINE_CODES.has(code)) || MACHINE_WORDS.test(String((err as Error | null)?.message ?? err));
+}
+
 /** Errors from libvips that mean "this file is bad", as opposed to "the machine had a problem". */
 export function isDecodeError(err: unknown): boolean {
+	if (err instanceof UndecodableImage) return true;
+	if (isMachineFault(err)) return false;
 	const m = String((err as Error)?.message ?? err);
 	return /VipsJpeg|Premature end|truncated|corrupt|not a known|unsupported image format|Input file has corrupt|bad seek|Input image exceeds pixel limit|read error|invalid|VipsForeignLoad|timeout/i.test(m);
 }
 
+/**
+ * The first line of a library's error, for a refusal the uploader reads: libvips names the file it
+ * was reading, so server paths are replaced by "the file" (ASVS 5.0 16.5.1; TESTPLAN B3 found them).
+ */
 export function shortError(err: unknown): string {
-	return (String((err as Error)?.message ?? err).split('\n')[0] ?? '').slice(0, 200);
+	const line = String((err as Error)?.message ?? err).split('\n')[0] ?? '';
+	return line.replace(/"?(?:\/[^\s:"']+)+"?/g, 'the file').slice(0, 200);
 }
 
 /** A display copy with an SVG of the same size laid over it, as a JPEG for a printed report. */
