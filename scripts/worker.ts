@@ -25,7 +25,11 @@ for (let i = 0; i < cfg.MENISCUS_PHOTO_JOBS; i++) {
 	await boss.work<IngestJob>(INGEST_QUEUE, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
 		if (!job) return;
 		const started = Date.now();
-		const outcome = await ingestUpload(job.data.uploadId);
+		const outcome = await ingestUpload(job.data.uploadId).catch((err: Error) => {
+			// pg-boss retries it with back-off (a full disk, a database outage); the log says why.
+			log(`${job.data.uploadId}: failed, to be retried (${err.message})`);
+			throw err;
+		});
 		log(`${job.data.uploadId}: ${outcome.state}${'reason' in outcome ? ` (${outcome.code}: ${outcome.reason})` : ''}${'why' in outcome ? ` (${outcome.why})` : ''} in ${Date.now() - started} ms`);
 	});
 }

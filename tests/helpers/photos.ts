@@ -102,10 +102,10 @@ export interface UploadStatusBody {
 }
 
 /** Polls the status endpoint until the upload is recorded, refused or quarantined. */
-export async function settled(cookie: string, id: string, ms = 60_000): Promise<UploadStatusBody> {
+export async function settled(cookie: string, id: string, ms = 60_000, base?: string): Promise<UploadStatusBody> {
 	const until = Date.now() + ms;
 	while (Date.now() < until) {
-		const res = await call(`/api/uploads/status?id=${id}`, { cookie });
+		const res = await call(`/api/uploads/status?id=${id}`, { cookie, ...(base ? { base } : {}) });
 		const [u] = ((await res.json()) as { uploads: UploadStatusBody[] }).uploads;
 		if (u && ['recorded', 'refused', 'quarantined'].includes(u.state)) return u;
 		await new Promise((r) => setTimeout(r, 150));

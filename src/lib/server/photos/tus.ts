@@ -1,5 +1,4 @@
 import { Server } from '@tus/server';
-import { FileStore } from '@tus/file-store';
 import type { SignedInUser } from '../auth/lucia.ts';
 import { config } from '../config.ts';
 import { MAX_UPLOAD_BYTES } from '../../photos/limits.ts';
@@ -8,6 +7,9 @@ import { assertMayContinue, createUploadRecord, finishUpload, uploadOf, UploadRe
 import { removeIncoming } from './incoming.ts';
 import { enqueueIngest } from './queue.ts';
 import { tusPrecondition } from './tusPreconditions.ts';
+import { IncomingStore } from './incomingStore.ts';
+import { drainable } from './drainable.ts';
+import { isOutOfSpace, OUT_OF_SPACE } from './diskFull.ts';
 
 /**
  * The tus 1.0 server behind /api/uploads (the one catch-all endpoint). The endpoint has already
@@ -45,7 +47,7 @@ function tusServer(): Server {
 	server = new Server({
 		path: UPLOADS_PATH,
 		relativeLocation: true,
-		datastore: new FileStore({ directory: dirs.incoming() }),
+		datastore: new IncomingStore({ directory: dirs.incoming() }),
 		maxSize: MAX_UPLOAD_BYTES,
 		allowedOrigins: [origin],
 		disableTerminationForFinishedUploads: true,
@@ -78,6 +80,11 @@ function tusServer(): Server {
 		},
 		onResponseError: (_req, err) => {
 			if ('status_code' in err && err.status_code < 500) return undefined;
+			// A full disk (TESTPLAN F7): the client is told, and keeps what it sent (HEAD, then resume).
+			if (err === OUT_OF_SPACE || isOutOfSpace(err)) {
+				console.error('[uploads] out of disk space in the uploads folder');
+				return OUT_OF_SPACE;
+			}
 			console.error(`[uploads] ${'message' in err ? err.message : err.body}`);
 			return { status_code: 500, body: 'The upload could not be stored; try again.\n' };
 		},
@@ -88,6 +95,15 @@ function tusServer(): Server {
 export async function handleTus(request: Request, user: SignedInUser): Promise<Response> {
 	const refused = tusPrecondition(request, UPLOADS_PATH);
 	if (refused) return refused;
-	who.set(request, user);
-	return tusServer().handleWeb(request);
+	if (request.method !== 'PATCH' || !request.body) {
+		who.set(request, user);
+		return tusServer().handleWeb(request);
+	}
+	const patch = drainable(request);
+	who.set(patch.request, user);
+	const answer = await tusServer().handleWeb(patch.request);
+	// The client is still sending the rest of a PATCH the disk could not take: read it to the end
+	// (and discard it) so that the 507 reaches the client instead of a reset connection.
+	if (answer.status === OUT_OF_SPACE.status_code) void patch.drain().catch(() => {});
+	return answer;
 }
