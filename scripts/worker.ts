@@ -6,6 +6,7 @@
 // Started by `npm start` and by the tests; `npm run worker` runs one by hand.
 import { config } from '../src/lib/server/config.ts';
 import { db, closeDb } from '../src/lib/server/db.ts';
+import { isDatabaseUnavailable } from '../src/lib/server/dbErrors.ts';
 import { INGEST_QUEUE, queue, stopQueue, type IngestJob } from '../src/lib/server/photos/queue.ts';
 import { ingestUpload } from '../src/lib/server/photos/ingest.ts';
 import { reconcile } from '../src/lib/server/photos/reconcile.ts';
@@ -15,6 +16,14 @@ import { ensureDirs } from '../src/lib/server/photos/storage.ts';
 import { DIGEST_CRON, DIGEST_QUEUE, digestDate, runDueDigest } from '../src/lib/server/mail/digest.ts';
 
 const log = (m: string) => console.log(`${new Date().toISOString()} ${m}`);
+// pg-boss 10 records a job's outcome (complete/fail in manager.js) without awaiting it, so when the
+// database is down at that moment the rejection goes unhandled, and Node would end the worker (and
+// `npm start` with it). The outcome is lost, not the job: it expires and is retried. Anything else
+// unhandled still ends the process.
+process.on('unhandledRejection', (err) => {
+	if (!isDatabaseUnavailable(err)) throw err;
+	log(`database unavailable while recording a job's outcome: ${(err as Error).message}`);
+});
 const cfg = config();
 configureSharp(cfg.MENISCUS_SHARP_THREADS);
 ensureDirs();

@@ -80,8 +80,8 @@ export const tusMetadata = (m: Record<string, string>) =>
 
 export const uploadIdOf = (url: string) => new URL(url, baseUrl()).pathname.split('/').pop()!;
 
-export async function makeSpecimen(cookie: string, prefix = 'PHT'): Promise<string> {
-	const res = await call('/api/specimens', { cookie, json: specimenRecord(`${prefix}.${process.pid}`) });
+export async function makeSpecimen(cookie: string, prefix = 'PHT', base?: string): Promise<string> {
+	const res = await call('/api/specimens', { cookie, json: specimenRecord(`${prefix}.${process.pid}`), ...(base ? { base } : {}) });
 	if (res.status !== 201) throw new Error(`specimen: ${res.status} ${await res.text()}`);
 	return ((await res.json()) as { specimen: { id: string } }).specimen.id;
 }

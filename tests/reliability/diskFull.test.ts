@@ -4,10 +4,8 @@ import path from 'node:path';
 import { QueryTypes } from 'sequelize';
 import type { DetailedError } from 'tus-js-client';
 import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
-import { call } from '../helpers/server.ts';
 import { signedInUser } from '../helpers/users.ts';
-import { specimenRecord } from '../helpers/specimens.ts';
-import { sampleJpeg, settled, sha256OfFile, tusHead, tusStart, tusUpload, uploadIdOf, writeTiff } from '../helpers/photos.ts';
+import { makeSpecimen, sampleJpeg, settled, sha256OfFile, tusHead, tusStart, tusUpload, uploadIdOf, writeTiff } from '../helpers/photos.ts';
 import { startOwnStack, type OwnStack } from '../helpers/ownStack.ts';
 import { checkStoredPhotos } from '../helpers/photoFiles.ts';
 import { fill, freeBytes, mountTmpfs, unfill, unmountTmpfs } from '../helpers/tmpfs.ts';
@@ -45,9 +43,7 @@ beforeAll(async () => {
 	stack.startWorker();
 	endpoint = `${stack.base}/api/uploads/`;
 	({ cookie } = await signedInUser('conservator', 'f7'));
-	const res = await call('/api/specimens', { cookie, json: specimenRecord(`F7.${process.pid}`), base: stack.base });
-	expect(res.status).toBe(201);
-	specimenId = (await res.json()).specimen.id;
+	specimenId = await makeSpecimen(cookie, 'F7', stack.base);
 }, 180_000);
 
 afterAll(async () => {
