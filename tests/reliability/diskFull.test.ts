@@ -5,7 +5,7 @@ import { QueryTypes } from 'sequelize';
 import type { DetailedError } from 'tus-js-client';
 import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
 import { signedInUser } from '../helpers/users.ts';
-import { makeSpecimen, sampleJpeg, settled, sha256OfFile, tusHead, tusStart, tusUpload, uploadIdOf, writeTiff } from '../helpers/photos.ts';
+import { makeSpecimen, sampleJpeg, settled, sha256OfFile, tusHead, tusMetadata, tusStart, tusUpload, uploadIdOf, writeTiff } from '../helpers/photos.ts';
 import { startOwnStack, type OwnStack } from '../helpers/ownStack.ts';
 import { checkStoredPhotos } from '../helpers/photoFiles.ts';
 import { fill, freeBytes, mountTmpfs, unfill, unmountTmpfs } from '../helpers/tmpfs.ts';
@@ -148,6 +148,11 @@ describe('the uploads folder runs out of space (TESTPLAN F7)', () => {
 		const sets = path.join(uploads, 'derivatives', photoIdFor(id));
 		expect(fs.existsSync(sets) ? fs.readdirSync(sets) : []).toEqual([]);
 		await expectStoredIntact(2);
+		// A new upload cannot even be created on the full disk: 507 too, and no half-written info file.
+		const before = fs.readdirSync(path.join(uploads, 'incoming')).sort();
+		const created = await fetch(endpoint, { method: 'POST', headers: { cookie, origin: stack!.base, 'tus-resumable': '1.0.0', 'upload-length': '1000', 'upload-metadata': tusMetadata(meta('jar-c.tif')) } });
+		expect([created.status, await created.text()]).toEqual([507, expect.stringMatching(/out of storage space/i)]);
+		expect(fs.readdirSync(path.join(uploads, 'incoming')).sort()).toEqual(before);
 
 		unfill(uploads);
 		const done = await settled(cookie, id, 180_000, stack!.base);

@@ -1,10 +1,11 @@
 import fs from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
 import pg from 'pg';
-import { beforeAll, describe, expect, inject, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { call, useTestDatabase } from '../helpers/server.ts';
 import { signedInUser } from '../helpers/users.ts';
-import { sampleJpeg, settled, tusUpload } from '../helpers/photos.ts';
+import { sampleJpeg, settled, tusUpload, writeTiff } from '../helpers/photos.ts';
 import { expectAcknowledgedKept, saveTargets, startSavers, type SaveTarget } from '../helpers/savers.ts';
 import { checkStoredPhotos } from '../helpers/photoFiles.ts';
 import { killCluster } from '../helpers/pgCrash.ts';
@@ -27,6 +28,8 @@ const SETTINGS = ['fsync', 'synchronous_commit', 'full_page_writes'];
 let cookie = '';
 let targets: SaveTarget[] = [];
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+const tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'meniscus-f5-'));
+afterAll(() => fs.rmSync(tmp, { recursive: true, force: true }));
 
 async function query<T extends pg.QueryResultRow>(sql: string): Promise<T[]> {
 	const client = new pg.Client({ connectionString: inject('databaseUrl') });
@@ -86,11 +89,17 @@ describe('every PostgreSQL process killed with SIGKILL (TESTPLAN F5)', () => {
 		const recorded = await Promise.all([1, 2, 3, 4].map(upload));
 		for (const id of recorded) expect((await settled(cookie, id, 90_000)).state).toBe('recorded');
 		const savers = startSavers({ cookie, targets, retry: [503] });
-		// …and acknowledged (204) just before it, perhaps not yet recorded.
-		const late = await Promise.all([5, 6].map(upload));
-		await sleep(500);
+		// …and acknowledged (204) just before it: a small one, and a 12-megapixel TIFF whose ingest is
+		// under way (claimed by the worker) at the moment of the crash.
+		const tiff = path.join(tmp, 'power-big.tif');
+		await writeTiff(tiff, 4000, 3000);
+		const late = [await upload(5), (await tusUpload(tiff, { cookie, meta: { filename: 'power-big.tif', filetype: 'image/tiff', specimenId, view: 'front', stage: 'as-found' } })).id];
+		const until = Date.now() + 20_000;
+		let processing = false;
+		while (!processing && Date.now() < until) processing = (await query<{ state: string }>(`SELECT state FROM photo_uploads WHERE id = '${late[1]}'`))[0]?.state === 'processing';
 		const dataDir = inject('clusterDataDir');
 		const killed = await killCluster(dataDir);
+		expect(processing, 'the big upload was being ingested when PostgreSQL was killed').toBe(true);
 		await sleep(1_000);
 		await startCluster({ dataDir, port: inject('clusterPort'), database: new URL(inject('databaseUrl')).pathname.slice(1), log: () => {} });
 		const t0 = Date.now();
