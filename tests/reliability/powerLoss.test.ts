@@ -99,9 +99,9 @@ describe('every PostgreSQL process killed with SIGKILL (TESTPLAN F5)', () => {
 		while (!processing && Date.now() < until) processing = (await query<{ state: string }>(`SELECT state FROM photo_uploads WHERE id = '${late[1]}'`))[0]?.state === 'processing';
 		const dataDir = inject('clusterDataDir');
 		const killed = await killCluster(dataDir);
-		expect(processing, 'the big upload was being ingested when PostgreSQL was killed').toBe(true);
 		await sleep(1_000);
 		await startCluster({ dataDir, port: inject('clusterPort'), database: new URL(inject('databaseUrl')).pathname.slice(1), log: () => {} });
+		expect(processing, 'the big upload was being ingested when PostgreSQL was killed').toBe(true);
 		const t0 = Date.now();
 		while (Date.now() - t0 < 30_000 && (await call('/api/me', { cookie })).status !== 200) await sleep(250);
 		await sleep(1_500);
