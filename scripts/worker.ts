@@ -6,6 +6,7 @@
 // Started by `npm start` and by the tests; `npm run worker` runs one by hand.
 import { config } from '../src/lib/server/config.ts';
 import { db, closeDb } from '../src/lib/server/db.ts';
+import { isDatabaseUnavailable } from '../src/lib/server/dbErrors.ts';
 import { INGEST_QUEUE, queue, stopQueue, type IngestJob } from '../src/lib/server/photos/queue.ts';
 import { ingestUpload } from '../src/lib/server/photos/ingest.ts';
 import { reconcile } from '../src/lib/server/photos/reconcile.ts';
@@ -16,6 +17,14 @@ import { lowerPriority } from '../src/lib/server/photos/priority.ts';
 import { DIGEST_CRON, DIGEST_QUEUE, digestDate, runDueDigest } from '../src/lib/server/mail/digest.ts';
 
 const log = (m: string) => console.log(`${new Date().toISOString()} ${m}`);
+// pg-boss 10 records a job's outcome (complete/fail in manager.js) without awaiting it, so when the
+// database is down at that moment the rejection goes unhandled, and Node would end the worker (and
+// `npm start` with it). The outcome is lost, not the job: it expires and is retried. Anything else
+// unhandled still ends the process.
+process.on('unhandledRejection', (err) => {
+	if (!isDatabaseUnavailable(err)) throw err;
+	log(`database unavailable while recording a job's outcome: ${(err as Error).message}`);
+});
 const cfg = config();
 // Before any photo work starts threads: they inherit it (TESTPLAN L2, other routes keep their pace).
 lowerPriority(cfg.MENISCUS_WORKER_NICE);
@@ -28,7 +37,11 @@ for (let i = 0; i < cfg.MENISCUS_PHOTO_JOBS; i++) {
 	await boss.work<IngestJob>(INGEST_QUEUE, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
 		if (!job) return;
 		const started = Date.now();
-		const outcome = await ingestUpload(job.data.uploadId);
+		const outcome = await ingestUpload(job.data.uploadId).catch((err: Error) => {
+			// pg-boss retries it with back-off (a full disk, a database outage); the log says why.
+			log(`${job.data.uploadId}: failed, to be retried (${err.message})`);
+			throw err;
+		});
 		log(`${job.data.uploadId}: ${outcome.state}${'reason' in outcome ? ` (${outcome.code}: ${outcome.reason})` : ''}${'why' in outcome ? ` (${outcome.why})` : ''} in ${Date.now() - started} ms`);
 	});
 }

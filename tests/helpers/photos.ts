@@ -80,8 +80,8 @@ export const tusMetadata = (m: Record<string, string>) =>
 
 export const uploadIdOf = (url: string) => new URL(url, baseUrl()).pathname.split('/').pop()!;
 
-export async function makeSpecimen(cookie: string, prefix = 'PHT'): Promise<string> {
-	const res = await call('/api/specimens', { cookie, json: specimenRecord(`${prefix}.${process.pid}`) });
+export async function makeSpecimen(cookie: string, prefix = 'PHT', base?: string): Promise<string> {
+	const res = await call('/api/specimens', { cookie, json: specimenRecord(`${prefix}.${process.pid}`), ...(base ? { base } : {}) });
 	if (res.status !== 201) throw new Error(`specimen: ${res.status} ${await res.text()}`);
 	return ((await res.json()) as { specimen: { id: string } }).specimen.id;
 }
@@ -102,10 +102,10 @@ export interface UploadStatusBody {
 }
 
 /** Polls the status endpoint until the upload is recorded, refused or quarantined. */
-export async function settled(cookie: string, id: string, ms = 60_000): Promise<UploadStatusBody> {
+export async function settled(cookie: string, id: string, ms = 60_000, base?: string): Promise<UploadStatusBody> {
 	const until = Date.now() + ms;
 	while (Date.now() < until) {
-		const res = await call(`/api/uploads/status?id=${id}`, { cookie });
+		const res = await call(`/api/uploads/status?id=${id}`, { cookie, ...(base ? { base } : {}) });
 		const [u] = ((await res.json()) as { uploads: UploadStatusBody[] }).uploads;
 		if (u && ['recorded', 'refused', 'quarantined'].includes(u.state)) return u;
 		await new Promise((r) => setTimeout(r, 150));

@@ -8,8 +8,12 @@ import { readMailbox, type MailboxMessage } from '../../src/lib/server/mail/fake
  */
 export const baseUrl = () => inject('baseUrl');
 
+let ownStack = false;
+
 /** Points this test process's server modules (models, auth) at the test database. */
 export function useTestDatabase(): void {
+	// A file that runs a stack of its own (ownStack.ts) keeps its server modules pointed at that.
+	if (ownStack) return;
 	process.env.DATABASE_URL = inject('databaseUrl');
 	process.env.MENISCUS_PUBLIC_URL = inject('baseUrl');
 	process.env.MENISCUS_MAILBOX_DIR = inject('mailboxDir');
@@ -17,6 +21,16 @@ export function useTestDatabase(): void {
 	// Mail this process queues (tests that call the server modules) goes to the same fake SMTP.
 	process.env.SMTP_HOST = inject('serverEnv').SMTP_HOST!;
 	process.env.SMTP_PORT = inject('serverEnv').SMTP_PORT!;
+}
+
+/**
+ * Points this test process's server modules at a stack of the test's own (its database, uploads
+ * folder and address) for the rest of the file, whatever later calls to useTestDatabase() ask.
+ */
+export function useOwnStack(env: { DATABASE_URL: string; MENISCUS_UPLOADS_DIR: string; MENISCUS_PUBLIC_URL: string }): void {
+	useTestDatabase();
+	ownStack = true;
+	Object.assign(process.env, env);
 }
 
 export interface Req {

@@ -5,10 +5,11 @@ import { QueryTypes } from 'sequelize';
 import { db } from '../db.ts';
 import { Photo, PhotoDerivative, PhotoUpload } from '../models/index.ts';
 import { audit } from '../audit.ts';
+import { isDatabaseUnavailable } from '../dbErrors.ts';
 import { cameraName, captureInstant } from '../../photos/exif.ts';
 import { inspect, isDecodeError, makeDerivatives, readExif, shortError, type Refusal } from './pipeline.ts';
 import { incomingFile, receivedBytes, removeIncoming } from './incoming.ts';
-import { dirs, fsyncDir, fsyncFile, masterExtension, newSetId, placeDurably, relativeToRoot, removeQuietly, resolveStored, sha256File } from './storage.ts';
+import { dirs, fsyncDir, fsyncFile, masterExtension, mkdirDurably, newSetId, placeDurably, relativeToRoot, removeQuietly, resolveStored, sha256File } from './storage.ts';
 
 /**
  * Turns a finished upload into a recorded photograph, as a job that may run twice, crash anywhere
@@ -43,8 +44,26 @@ async function claim(uploadId: string): Promise<boolean> {
 	return rows.length === 1;
 }
 
+/** How long a failed job waits for the database to come back so it can hand its upload back. */
+const RELEASE_PATIENCE_MS = 3 * 60_000;
+
+/**
+ * Hands a claimed upload back after a failure, for the job's retry to claim. If the failure was the
+ * database going away (a crash, a restart: TESTPLAN F5, F6), the hand-back waits for it to return;
+ * otherwise the upload would stay claimed until the lease ran out, 20 minutes, and pg-boss could not
+ * record the failure either (so the retry would wait for the job's 30-minute expiry).
+ */
 async function release(uploadId: string): Promise<void> {
-	await PhotoUpload.update({ state: 'receiving' }, { where: { id: uploadId, state: 'processing' } });
+	const until = Date.now() + RELEASE_PATIENCE_MS;
+	for (let wait = 250; ; wait = Math.min(wait * 2, 5_000)) {
+		try {
+			await PhotoUpload.update({ state: 'receiving' }, { where: { id: uploadId, state: 'processing' } });
+			return;
+		} catch (err) {
+			if (!isDatabaseUnavailable(err) || Date.now() > until) throw err;
+			await new Promise((r) => setTimeout(r, wait));
+		}
+	}
 }
 
 async function refuse(upload: PhotoUpload, r: Refusal): Promise<IngestOutcome> {
@@ -128,7 +147,7 @@ async function processClaimed(upload: PhotoUpload): Promise<IngestOutcome> {
 	}
 	await fsp.chmod(master, 0o444);
 	const setDir = path.join(dirs.derivatives(), photoId, setId);
-	await fsp.mkdir(path.dirname(setDir), { recursive: true });
+	await mkdirDurably(path.dirname(setDir));
 	await fsp.rename(work, setDir);
 	await fsyncDir(path.dirname(setDir));
 	const capturedAt = captureInstant(exif.capture.raw, exif.capture.offset);
@@ -187,7 +206,7 @@ export async function regenerateDerivatives(photoId: string): Promise<string> {
 	const derivatives = await makeDerivatives(resolveStored(photo.masterPath), work);
 	await syncTree(work);
 	const setDir = path.join(dirs.derivatives(), photoId, setId);
-	await fsp.mkdir(path.dirname(setDir), { recursive: true });
+	await mkdirDurably(path.dirname(setDir));
 	await fsp.rename(work, setDir);
 	await fsyncDir(path.dirname(setDir));
 	await db().transaction(async (transaction) => {

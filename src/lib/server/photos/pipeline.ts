@@ -1,11 +1,12 @@
 import fsp from 'node:fs/promises';
 import path from 'node:path';
-import sharp, { type Metadata } from 'sharp';
+import sharp, { type Metadata, type OutputInfo } from 'sharp';
 import exifr from 'exifr';
 import { checkEnd, sniffHead, type RasterKind } from '../../photos/sniff.ts';
 import { DISPLAY_LONG_EDGE, MAX_PIXELS, THUMBNAIL_LONG_EDGE, TILE_SIZE } from '../../photos/limits.ts';
 import { summariseExif, type StoredExif } from '../../photos/exif.ts';
 import { readSlice, removeQuietly } from './storage.ts';
+import { isOutOfSpace } from './diskFull.ts';
 
 /**
  * The image work of an upload, with no database in it (so the benchmark runs exactly this):
@@ -97,19 +98,22 @@ export interface DerivativeFile {
  */
 export async function makeDerivatives(master: string, setDir: string): Promise<DerivativeFile[]> {
 	await fsp.mkdir(setDir, { recursive: false });
+	let decoded: { data: Buffer; info: OutputInfo };
 	try {
-		const decoded = await sharp(master, { ...inputOptions, pages: 1 })
+		decoded = await sharp(master, { ...inputOptions, pages: 1 })
 			.timeout({ seconds: SHARP_TIMEOUT_S })
 			.autoOrient()
 			.flatten({ background: '#ffffff' })
 			.toColourspace('srgb')
 			.raw({ depth: 'uchar' })
-			.toBuffer({ resolveWithObject: true })
-			.catch((err: unknown) => {
-				// Whatever stops the decoder is the file's doing (libvips' words vary, down to "Unknown
-				// error" for a damaged PNG header: TESTPLAN B3 found it), unless the machine ran short.
-				throw isMachineFault(err) ? err : new UndecodableImage(err);
-			});
+			.toBuffer({ resolveWithObject: true });
+	} catch (err) {
+		await removeQuietly(setDir);
+		// Whatever stops the decoder is the file's doing (libvips' words vary, down to "Unknown error"
+		// for a damaged PNG header: TESTPLAN B3 found it), unless the machine ran short.
+		throw isMachineFault(err) ? err : new UndecodableImage(err);
+	}
+	try {
 		const { width, height, channels } = decoded.info;
 		const from = () => sharp(decoded.data, { raw: { width, height, channels }, limitInputPixels: MAX_PIXELS }).timeout({ seconds: SHARP_TIMEOUT_S });
 		const resized = async (kind: 'thumbnail' | 'display', edge: number, quality: number): Promise<DerivativeFile> => {
@@ -128,10 +132,28 @@ export async function makeDerivatives(master: string, setDir: string): Promise<D
 			const info = await fsp.stat(path.join(setDir, 'tiles', 'info.json'));
 			return { kind: 'tiles', path: 'tiles/info.json', mediaType: 'application/ld+json', width, height, byteSize: info.size };
 		};
-		return await Promise.all([resized('thumbnail', THUMBNAIL_LONG_EDGE, 80), resized('display', DISPLAY_LONG_EDGE, 86), tiles()]);
+		// Every write is let finish before a failure is acted on, so none adds files after the clean-up.
+		const made = await Promise.allSettled([resized('thumbnail', THUMBNAIL_LONG_EDGE, 80), resized('display', DISPLAY_LONG_EDGE, 86), tiles()]);
+		const failed = made.find((r) => r.status === 'rejected');
+		if (failed) throw failed.reason;
+		return made.map((r) => (r as PromiseFulfilledResult<DerivativeFile>).value);
 	} catch (err) {
+		// Half a set is no set: nothing of it stays.
 		await removeQuietly(setDir);
-		throw err;
+		throw new DerivativeWriteError(err);
+	}
+}
+
+/**
+ * Making a derivative from pixels already decoded failed: a fault of the machine (a full disk,
+ * an I/O error), never of the photo, whatever words libvips uses ("VipsJpeg: unable to write").
+ * The job fails and is retried; the upload is never refused for it (TESTPLAN F7).
+ */
+export class DerivativeWriteError extends Error {
+	override name = 'DerivativeWriteError';
+	constructor(cause: unknown) {
+		const detail = String((cause as Error)?.message ?? cause).replace(/\s*\n\s*/g, '; ');
+		super(`${isOutOfSpace(cause) ? 'Out of disk space while writing' : 'Could not write'} the derivatives (${detail.slice(0, 400)}).`, { cause });
 	}
 }
 
@@ -157,11 +179,12 @@ export class UndecodableImage extends Error {
 	}
 }
 
-const MACHINE_CODES = new Set(['ENOSPC', 'EDQUOT', 'ENOMEM', 'EMFILE', 'ENFILE', 'EIO', 'EACCES', 'EPERM', 'EROFS', 'EBUSY']);
-const MACHINE_WORDS = /no space left on device|disk quota exceeded|out of memory|cannot allocate memory|too many open files|input\/output error|permission denied|read-only file system/i;
+const MACHINE_CODES = new Set(['ENOMEM', 'EMFILE', 'ENFILE', 'EIO', 'EACCES', 'EPERM', 'EROFS', 'EBUSY']);
+const MACHINE_WORDS = /out of memory|cannot allocate memory|too many open files|input\/output error|permission denied|read-only file system/i;
 
-/** The machine had a problem (disk, memory, files, permissions): retry later, never blame the photo. */
+/** The machine had a problem (disk space, memory, files, permissions): retry later, never blame the photo. */
 export function isMachineFault(err: unknown): boolean {
+	if (isOutOfSpace(err)) return true;
 	const code = (err as NodeJS.ErrnoException | null)?.code;
 	return (typeof code === 'string' && MACHINE_CODES.has(code)) || MACHINE_WORDS.test(String((err as Error | null)?.message ?? err));
 }
@@ -169,7 +192,7 @@ export function isMachineFault(err: unknown): boolean {
 /** Errors from libvips that mean "this file is bad", as opposed to "the machine had a problem". */
 export function isDecodeError(err: unknown): boolean {
 	if (err instanceof UndecodableImage) return true;
-	if (isMachineFault(err)) return false;
+	if (err instanceof DerivativeWriteError || isMachineFault(err)) return false;
 	const m = String((err as Error)?.message ?? err);
 	return /VipsJpeg|Premature end|truncated|corrupt|not a known|unsupported image format|Input file has corrupt|bad seek|Input image exceeds pixel limit|read error|invalid|VipsForeignLoad|timeout/i.test(m);
 }

@@ -27,7 +27,21 @@ export const dirs = {
 };
 
 export function ensureDirs(): void {
-	for (const d of Object.values(dirs)) fs.mkdirSync(d(), { recursive: true });
+	let made = false;
+	for (const d of Object.values(dirs)) made = fs.mkdirSync(d(), { recursive: true }) !== undefined || made;
+	// New folders are new entries in the root (and a new root in its parent): synced, as mkdirDurably does.
+	if (made) for (const d of [uploadsRoot(), path.dirname(uploadsRoot())]) fsyncDirSync(d);
+}
+
+function fsyncDirSync(dir: string): void {
+	const fd = fs.openSync(dir, 'r');
+	try {
+		fs.fsyncSync(fd);
+	} catch (err) {
+		if ((err as NodeJS.ErrnoException).code !== 'EINVAL') throw err;
+	} finally {
+		fs.closeSync(fd);
+	}
 }
 
 /** An id that names a file: tus ids and our set ids are hex; anything else never reaches the disk. */
@@ -66,6 +80,19 @@ export async function fsyncDir(dir: string): Promise<void> {
 	}
 }
 
+/**
+ * mkdir -p, durably: a folder made here is itself a new entry in its parent, which must be synced
+ * for the folder (and so everything later placed in it) to survive a power cut (fsync(2)).
+ */
+export async function mkdirDurably(dir: string): Promise<void> {
+	const first = await fsp.mkdir(dir, { recursive: true });
+	if (first === undefined) return;
+	for (let d = path.resolve(dir); ; d = path.dirname(d)) {
+		await fsyncDir(path.dirname(d));
+		if (d === path.resolve(first)) return;
+	}
+}
+
 /** Streams a file through SHA-256 (hex). */
 export async function sha256File(file: string): Promise<string> {
 	const hash = crypto.createHash('sha256');
@@ -78,7 +105,7 @@ export async function sha256File(file: string): Promise<string> {
  * copy to a temporary name and a rename; never overwrites an existing `to`. The result is synced.
  */
 export async function placeDurably(from: string, to: string): Promise<void> {
-	await fsp.mkdir(path.dirname(to), { recursive: true });
+	await mkdirDurably(path.dirname(to));
 	try {
 		await fsp.link(from, to);
 	} catch (err) {

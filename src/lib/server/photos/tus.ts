@@ -1,5 +1,4 @@
 import { Server } from '@tus/server';
-import { FileStore } from '@tus/file-store';
 import type { SignedInUser } from '../auth/lucia.ts';
 import { config } from '../config.ts';
 import { MAX_UPLOAD_BYTES } from '../../photos/limits.ts';
@@ -10,6 +9,9 @@ import { enqueueIngest } from './queue.ts';
 import { tusPrecondition } from './tusPreconditions.ts';
 import { PgLocker } from './pgLocker.ts';
 import { isDatabaseUnavailable, UNAVAILABLE_MESSAGE } from '../dbErrors.ts';
+import { IncomingStore } from './incomingStore.ts';
+import { drainable } from './drainable.ts';
+import { isOutOfSpace, OUT_OF_SPACE } from './diskFull.ts';
 
 /**
  * The tus 1.0 server behind /api/uploads (the one catch-all endpoint). The endpoint has already
@@ -48,7 +50,7 @@ function tusServer(): Server {
 	server = new Server({
 		path: UPLOADS_PATH,
 		relativeLocation: true,
-		datastore: new FileStore({ directory: dirs.incoming() }),
+		datastore: new IncomingStore({ directory: dirs.incoming() }),
 		// Not the default MemoryLocker: its locks are per process, and a second app process on the same
 		// uploads folder could write the same upload at once (tus-node-server #408, TESTPLAN F4).
 		locker: new PgLocker({ connectionString: config().DATABASE_URL }),
@@ -87,6 +89,11 @@ function tusServer(): Server {
 			// Like every other route (middleware.ts): the database is away, the client may try again;
 			// the upload's bytes so far are on disk and its next HEAD finds them.
 			if (isDatabaseUnavailable(err)) return { status_code: 503, body: `${UNAVAILABLE_MESSAGE}\n` };
+			// A full disk (TESTPLAN F7): the client is told, and keeps what it sent (HEAD, then resume).
+			if (err === OUT_OF_SPACE || isOutOfSpace(err)) {
+				console.error('[uploads] out of disk space in the uploads folder');
+				return OUT_OF_SPACE;
+			}
 			console.error(`[uploads] ${'message' in err ? err.message : err.body}`);
 			return { status_code: 500, body: 'The upload could not be stored; try again.\n' };
 		},
@@ -97,8 +104,13 @@ function tusServer(): Server {
 export async function handleTus(request: Request, user: SignedInUser): Promise<Response> {
 	const refused = tusPrecondition(request, UPLOADS_PATH);
 	if (refused) return refused;
-	who.set(request, user);
-	const response = await tusServer().handleWeb(request);
+	const patch = request.method === 'PATCH' && request.body ? drainable(request) : null;
+	const req = patch?.request ?? request;
+	who.set(req, user);
+	const response = await tusServer().handleWeb(req);
+	// The client is still sending the rest of a PATCH the disk could not take: read it to the end
+	// (and discard it) so that the 507 reaches the client instead of a reset connection.
+	if (patch && response.status === OUT_OF_SPACE.status_code) void patch.drain().catch(() => {});
 	// tus's error hook sets only the status and body; a 503 says when to come back, as the middleware's does.
 	if (response.status === 503) response.headers.set('retry-after', '5');
 	return response;
