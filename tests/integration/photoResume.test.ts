@@ -14,6 +14,7 @@ import { cookieFor, makeUser } from '../helpers/users.ts';
 import { makeSpecimen, openCheck, sampleJpeg, settled, sha256, sha256OfFile, tusHead, tusMetadata, tusStart, tusUpload, writeTiff } from '../helpers/photos.ts';
 import { db } from '../../src/lib/server/db.ts';
 import { AuditEvent, Photo, PhotoUpload } from '../../src/lib/server/models/index.ts';
+import { finishUpload } from '../../src/lib/server/photos/uploads.ts';
 
 /**
  * Resumable uploads under faults, with real tus clients (tus-js-client from Node), the real server
@@ -258,6 +259,14 @@ describe('two clients writing the same upload at once', () => {
 });
 
 describe('the reconciler', () => {
+	it('and the tus finish hook meeting on one upload: exactly one of them marks it finished, so it gets one job', async () => {
+		const id = crypto.randomBytes(16).toString('hex');
+		await PhotoUpload.create({ id, specimenId, checkId: null, view: 'back', stage: 'as-found', fileName: 'race.jpg', declaredType: 'image/jpeg', declaredSize: 100, clientSha256: null, uploaderId: conservatorId, refusalCode: null, reason: null, photoId: null, finishedAt: null });
+		const outcomes = await Promise.all(Array.from({ length: 8 }, () => finishUpload(id)));
+		expect(outcomes.filter((o) => o.ok && o.first)).toHaveLength(1);
+		expect(outcomes.every((o) => o.ok)).toBe(true);
+	});
+
 	it('records bytes that are complete on disk but have no upload record, for the uploader tus kept', async () => {
 		const bytes = await sampleJpeg(640, 480);
 		const id = crypto.randomBytes(16).toString('hex');

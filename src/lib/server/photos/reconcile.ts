@@ -74,6 +74,8 @@ export async function reconcile(now = new Date(), enqueue: (id: string) => Promi
 					report.refused.push(id);
 					continue;
 				}
+				// The tus finish hook got there first and queued it.
+				if (!finished.first) continue;
 			} else if (row.updatedAt >= staleBefore) {
 				continue;
 			}

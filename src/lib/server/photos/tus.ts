@@ -80,6 +80,8 @@ function tusServer(): Server {
 				await removeIncoming(upload.id).catch(() => {});
 				throw tusError(403, finished.reason);
 			}
+			// Marked finished by the reconciler meanwhile: it has queued the job.
+			if (!finished.first) return {};
 			// If the queue is unreachable the bytes are safe on disk and the reconciler queues them.
 			await enqueueIngest(upload.id).catch((err) => console.error(`[uploads] could not queue ${upload.id}: ${err.message}`));
 			return {};
