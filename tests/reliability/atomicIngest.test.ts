@@ -110,9 +110,10 @@ describe('a fault inside the transaction that records a photograph (TESTPLAN D3)
 		const rows = await PhotoDerivative.findAll({ where: { photoId: photo.id } });
 		expect(rows.length).toBe(after.derivatives);
 		expect(new Set(rows.map((r) => r.setId))).toEqual(new Set([photo.derivativeSet]));
-		// The failed attempts' sets are gone from disk; the master holds the bytes sent.
+		// The failed attempts' sets are gone from disk (removed just after the commit that recorded the
+		// photo, so give it a moment); the master holds the bytes sent.
 		const root = inject('uploadsDir');
-		expect(fs.readdirSync(path.join(root, 'derivatives', photo.id))).toEqual([photo.derivativeSet]);
+		await expect.poll(() => fs.readdirSync(path.join(root, 'derivatives', photo.id)), { timeout: 15_000 }).toEqual([photo.derivativeSet]);
 		expect(photo.sha256).toBe(sha256(bytes));
 		expect(sha256(fs.readFileSync(path.join(root, photo.masterPath)))).toBe(photo.sha256);
 	}, 180_000);
